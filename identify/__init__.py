@@ -1,0 +1,27 @@
+"""knotsift: identify knots in diagrams and 3D curves by exact invariants."""
+
+from .diagram import Diagram
+from .errors import (
+    CurveError,
+    DiagramError,
+    InvariantError,
+    KnotsiftError,
+    NotationError,
+    PolynomialError,
+    TableError,
+)
+from .laurent import Laurent
+
+__all__ = [
+    "Diagram",
+    "Laurent",
+    "KnotsiftError",
+    "DiagramError",
+    "NotationError",
+    "PolynomialError",
+    "InvariantError",
+    "TableError",
+    "CurveError",
+]
+
+__version__ = "0.1.0"

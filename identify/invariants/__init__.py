@@ -1,0 +1,1 @@
+"""Knot invariants computed exactly from a diagram."""
