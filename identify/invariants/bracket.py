@@ -174,7 +174,7 @@ def kauffman_bracket(diagram: Diagram, order: Sequence[int] | None = None) -> La
     order = contraction_order(diagram) if order is None else list(order)
     max_loops = n + 1
     bits = 2 * n + 8
-    offset = 2 * max_loops + 2  # keeps every exponent of A non-negative
+    offset = n + 2 * max_loops + 2  # keeps every exponent of A non-negative
     one = 1 << (bits * offset)
     shift2 = 2 * bits
 
