@@ -227,13 +227,20 @@ class Laurent:
         return Laurent._new(poly._low2 * k, dense)
 
     def evaluate(self, x):
-        """Evaluate at a number; half-integer powers use the principal square root."""
+        """Evaluate at a number; exact for integers and Fractions.
+
+        Half-integer powers use the principal square root (complex result).
+        """
         if not self._coeffs:
             return 0
         if self.has_integer_exponents():
+            exact = isinstance(x, (int, Fraction)) and not isinstance(x, bool)
+            base = Fraction(x) if exact else x
             total = 0
             for e, c in self.terms():
-                total += c * x ** int(e)
+                total += c * base ** int(e)
+            if exact and isinstance(total, Fraction) and total.denominator == 1:
+                return int(total)
             return total
         import cmath
 
