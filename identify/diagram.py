@@ -7,7 +7,9 @@ negative when it runs from entry 1 to entry 3 (common practice).  Edge
 directions follow from the under-strands, propagated along each component; a
 component that never passes under runs from its smallest label towards the
 smaller of that label's two neighbours (see
-:meth:`Diagram.assumed_orientation`).
+:meth:`Diagram.assumed_orientation`).  Such a component has linking number 0
+with the rest, so reversing it changes crossing signs but none of the
+invariants computed here.
 """
 
 from __future__ import annotations
@@ -194,8 +196,9 @@ class Diagram:
         for label, ds in darts.items():
             if len(ds) != 2:
                 where = ", ".join(f"crossing {i}" for i, _ in ds)
+                times = "once" if len(ds) == 1 else f"{len(ds)} times"
                 raise DiagramError(
-                    f"edge label {label} must appear exactly twice, found {len(ds)} times ({where})",
+                    f"edge label {label} must appear exactly twice, found {times} ({where})",
                     value=label, where=f"label {label}")
         self._darts = darts
         # incoming[(i, p)] is True when the edge at that dart enters crossing i.
