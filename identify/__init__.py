@@ -10,9 +10,13 @@ from .errors import (
     PolynomialError,
     TableError,
 )
+from .identification import identify
 from .laurent import Laurent
+from .result import IdentifyResult
 
 __all__ = [
+    "identify",
+    "IdentifyResult",
     "Diagram",
     "Laurent",
     "KnotsiftError",

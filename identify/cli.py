@@ -1,0 +1,228 @@
+"""The ``knotsift`` command: thin wrappers, each calling one library function.
+
+Exit codes: 0 success; 1 some inputs could not be read (their errors are
+reported, the rest is processed); 2 usage error; 3 the reference table is
+missing or unreadable.
+"""
+
+from __future__ import annotations
+
+import argparse
+import json
+import sys
+
+__all__ = ["main"]
+
+NOTATION_CHOICES = ("pd", "dt", "gauss", "braid", "conway")
+
+
+def _inputs(args) -> list[tuple[str, str]]:
+    """(label, text) of every input: inline codes, --file, standard input, or the demo."""
+    from .errors import NotationError
+
+    items: list[tuple[str, str]] = []
+    if args.demo:
+        from .demo import demo_path
+
+        args.file = [str(demo_path())]
+    for k, code in enumerate(args.code or []):
+        if code == "-":
+            items.extend(_lines(sys.stdin.read().splitlines(), "stdin"))
+        else:
+            items.append((f"input {k + 1}" if len(args.code) > 1 else "input", code))
+    for path in args.file or []:
+        try:
+            with open(path, encoding="utf-8") as fh:
+                items.extend(_lines(fh.read().splitlines(), path))
+        except OSError as exc:
+            raise NotationError(f"cannot read {path}: {exc.strerror}", value=path) from None
+    if not items and not sys.stdin.isatty() and not args.code and not args.file:
+        items.extend(_lines(sys.stdin.read().splitlines(), "stdin"))
+    return items
+
+
+def _lines(lines: list[str], where: str) -> list[tuple[str, str]]:
+    """One diagram per line; '#' comments and blank lines skipped; 'label<TAB>code' allowed."""
+    out = []
+    for n, line in enumerate(lines, 1):
+        s = line.strip()
+        if not s or s.startswith("#"):
+            continue
+        if "\t" in s:
+            label, code = s.split("\t", 1)
+            out.append((f"{where}, line {n} ({label.strip()})", code.strip()))
+        else:
+            out.append((f"{where}, line {n}", s))
+    return out
+
+
+def _cmd_identify(args) -> int:
+    from .identification import identify
+    from .errors import KnotsiftError
+    from .result import IdentifyResult
+    from .table import open_table
+
+    table = open_table(args.table)
+    items = _inputs(args)
+    if not items:
+        print("knotsift identify: no input (give a code, --file, --demo, or pipe codes in)",
+              file=sys.stderr)
+        return 2
+    results = []
+    for label, text in items:
+        try:
+            r = identify(text, args.notation, table=table, neighbours=args.neighbours,
+                         label=label)
+        except KnotsiftError as exc:
+            if args.debug:
+                raise
+            r = IdentifyResult(status="error", error=str(exc), source=label)
+        results.append(r)
+        if not args.json:
+            print(r.to_text())
+            if len(items) > 1:
+                print()
+    summary = {s: sum(1 for r in results if r.status == s)
+               for s in ("identified", "ambiguous", "not in table", "error")}
+    summary["total"] = len(results)
+    if args.json:
+        json.dump({"schema_version": 1, "results": [r.to_dict() for r in results],
+                   "summary": summary}, sys.stdout, indent=2)
+        print()
+    elif len(results) > 1:
+        print("summary: " + ", ".join(f"{v} {k}" for k, v in summary.items() if k != "total")
+              + f" of {summary['total']}")
+    if summary["error"]:
+        for r in results:
+            if r.status == "error":
+                print(f"knotsift: {r.source}: {r.error}", file=sys.stderr)
+        return 1
+    return 0
+
+
+def _cmd_show(args) -> int:
+    from .entry import describe_entry
+    from .names import find_name
+    from .table import open_table
+
+    table = open_table(args.table)
+    matches = find_name(args.name, table)
+    if not matches:
+        print(f"knotsift show: no table entry resembles {args.name!r}", file=sys.stderr)
+        return 1
+    best = matches[0]
+    info = describe_entry(best.name, best.mirrored, table)
+    info["matched_by"] = best.how
+    info["other_matches"] = [m.name for m in matches[1:]]
+    if args.json:
+        json.dump(info, sys.stdout, indent=2)
+        print()
+    else:
+        from .entry import entry_text
+
+        print(entry_text(info))
+    return 0
+
+
+def _cmd_lookup(args) -> int:
+    from .lookup import lookup_invariants, lookup_text
+    from .table import open_table
+
+    table = open_table(args.table)
+    found = lookup_invariants(table, jones=args.jones, alexander=args.alexander,
+                              determinant=args.determinant, signature=args.signature)
+    if args.json:
+        json.dump(found, sys.stdout, indent=2)
+        print()
+    else:
+        print(lookup_text(found))
+    return 0
+
+
+def _cmd_build(args) -> int:
+    from data_build.build import build_table
+    from .table import default_table_path
+
+    out = args.output or default_table_path()
+    report = build_table(out, max_crossings=args.max_crossings, keep_going=args.keep_going,
+                         show_progress=False if args.quiet else None)
+    if not args.quiet:
+        print(report.summary())
+        for p in report.problems:
+            print(f"  problem: {p}")
+    return 0
+
+
+def _parser() -> argparse.ArgumentParser:
+    p = argparse.ArgumentParser(
+        prog="knotsift",
+        description="Identify knots from diagrams by exact invariants matched against a "
+                    "reference table.")
+    p.add_argument("--debug", action="store_true", help="show tracebacks on errors")
+    sub = p.add_subparsers(dest="command", required=True)
+
+    q = sub.add_parser("identify", help="identify knots given as codes")
+    q.add_argument("code", nargs="*", help="a code in any notation (quote it), or - for stdin")
+    q.add_argument("-n", "--notation", choices=NOTATION_CHOICES,
+                   help="read the codes in this notation instead of detecting it")
+    q.add_argument("-f", "--file", action="append",
+                   help="a file with one code per line ('label<TAB>code' allowed); repeatable")
+    q.add_argument("--demo", action="store_true",
+                   help="run on the built-in demo batch of transcribed plasmid micrographs")
+    q.add_argument("--neighbours", action="store_true",
+                   help="also list table knots one crossing change away")
+    q.add_argument("--json", action="store_true", help="machine-readable output (see README)")
+    q.add_argument("--table", help="use this reference table file instead of the shipped one")
+    q.set_defaults(func=_cmd_identify)
+
+    s = sub.add_parser("show", help="print a table entry, found by a name typed loosely")
+    s.add_argument("name", help="e.g. 4_1, 'figure eight', 7-4, 74, '3_1 mirror'")
+    s.add_argument("--json", action="store_true", help="machine-readable output")
+    s.add_argument("--table", help="use this reference table file")
+    s.set_defaults(func=_cmd_show)
+
+    lk = sub.add_parser("lookup", help="find table knots by invariant values you already have")
+    lk.add_argument("--jones", help="Jones polynomial as text, e.g. 't + t^3 - t^4'")
+    lk.add_argument("--alexander", help="Alexander polynomial as text, e.g. 't^2 - t + 1'")
+    lk.add_argument("--determinant", type=int, help="the determinant")
+    lk.add_argument("--signature", type=int, help="the signature (right-handed trefoil: -2)")
+    lk.add_argument("--json", action="store_true", help="machine-readable output")
+    lk.add_argument("--table", help="use this reference table file")
+    lk.set_defaults(func=_cmd_lookup)
+
+    b = sub.add_parser("build", help="rebuild the reference table from reference/")
+    b.add_argument("-o", "--output", help="where to write (default: the shipped table)")
+    b.add_argument("--max-crossings", type=int, default=10, choices=range(3, 11),
+                   metavar="{3..10}", help="largest crossing number included (default 10)")
+    b.add_argument("--keep-going", action="store_true",
+                   help="leave out entries failing a check instead of stopping")
+    b.add_argument("--quiet", action="store_true", help="no progress or summary")
+    b.set_defaults(func=_cmd_build)
+    return p
+
+
+def main(argv: list[str] | None = None) -> int:
+    """Entry point of the ``knotsift`` command."""
+    from .errors import KnotsiftError, TableError
+
+    parser = _parser()
+    args = parser.parse_args(argv)
+    try:
+        return args.func(args)
+    except TableError as exc:
+        if args.debug:
+            raise
+        print(f"knotsift: {exc}", file=sys.stderr)
+        return 3
+    except KnotsiftError as exc:
+        if args.debug:
+            raise
+        print(f"knotsift: {exc}", file=sys.stderr)
+        return 1
+    except KeyboardInterrupt:
+        print("knotsift: interrupted", file=sys.stderr)
+        return 130
+
+
+if __name__ == "__main__":
+    sys.exit(main())

@@ -1,0 +1,131 @@
+"""The result of identifying one input: candidates, invariants and notes.
+
+``IdentifyResult.to_dict()`` is the documented JSON schema (README, "JSON
+output"); ``to_text()`` is the readable report.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+
+__all__ = ["Candidate", "IdentifyResult", "STATUSES", "CHIRALITIES", "JSON_SCHEMA_VERSION"]
+
+JSON_SCHEMA_VERSION = 1
+STATUSES = ("identified", "ambiguous", "not in table", "error")
+CHIRALITIES = ("same", "mirror", "amphichiral", "undetermined")
+
+
+@dataclass
+class Candidate:
+    """One table knot consistent with the input."""
+
+    name: str
+    label: str
+    chirality: str
+    agrees: list[str]
+    crossing_number: int
+    kind: str
+    aliases: list[str] = field(default_factory=list)
+
+    def to_dict(self) -> dict:
+        return {
+            "name": self.name,
+            "label": self.label,
+            "chirality": self.chirality,
+            "agrees": list(self.agrees),
+            "crossing_number": self.crossing_number,
+            "kind": self.kind,
+            "aliases": list(self.aliases),
+        }
+
+
+@dataclass
+class IdentifyResult:
+    """What could be said about one input diagram."""
+
+    status: str
+    candidates: list[Candidate] = field(default_factory=list)
+    invariants: dict[str, str] = field(default_factory=dict)
+    separation: dict[str, dict] = field(default_factory=dict)
+    notes: list[str] = field(default_factory=list)
+    source: str = ""
+    notation: str = ""
+    crossings_input: int | None = None
+    crossings_simplified: int | None = None
+    resolutions: list[dict] | None = None
+    neighbours: list[dict] | None = None
+    error: str | None = None
+
+    @property
+    def name(self) -> str | None:
+        """The identified knot's label (with the mirror mark), or None."""
+        if self.status == "identified" and self.candidates:
+            c = self.candidates[0]
+            return c.name if c.chirality in ("amphichiral", "undetermined") else c.label
+        return None
+
+    def to_dict(self) -> dict:
+        return {
+            "schema_version": JSON_SCHEMA_VERSION,
+            "source": self.source,
+            "notation": self.notation,
+            "status": self.status,
+            "name": self.name,
+            "candidates": [c.to_dict() for c in self.candidates],
+            "invariants": dict(self.invariants),
+            "separation": self.separation,
+            "crossings": {"input": self.crossings_input, "simplified": self.crossings_simplified},
+            "resolutions": self.resolutions,
+            "neighbours": self.neighbours,
+            "notes": list(self.notes),
+            "error": self.error,
+        }
+
+    def to_text(self) -> str:
+        lines = []
+        head = f"{self.source}: " if self.source else ""
+        if self.status == "error":
+            return f"{head}error: {self.error}"
+        if self.status == "identified":
+            c = self.candidates[0]
+            chir = {
+                "same": "same chirality as the table's reference diagram",
+                "mirror": "mirror image of the table's reference diagram",
+                "amphichiral": "amphichiral (equal to its mirror image)",
+                "undetermined": "chirality undetermined by these invariants",
+            }[c.chirality]
+            alias = f" ({', '.join(c.aliases)})" if c.aliases else ""
+            shown = c.label if c.chirality in ("same", "mirror") else c.name
+            lines.append(f"{head}{shown}{alias}: {chir}")
+        elif self.status == "ambiguous" and self.resolutions:
+            shown = ", ".join(f"{r['result']} ({r['fraction']:.0%})" for r in self.resolutions)
+            lines.append(f"{head}ambiguous over the uncertain crossings: {shown}")
+        elif self.status == "ambiguous":
+            names = ", ".join(c.label if c.chirality in ("same", "mirror") else c.name
+                              for c in self.candidates)
+            lines.append(f"{head}ambiguous: {names}")
+        else:
+            lines.append(f"{head}not in the table")
+        if self.crossings_input is not None:
+            lines.append(f"  crossings: {self.crossings_input} in the input, "
+                         f"{self.crossings_simplified} after simplification")
+        for key in ("jones", "alexander", "determinant", "signature"):
+            if self.invariants.get(key):
+                label = {"jones": "Jones V(t)", "alexander": "Alexander", "determinant":
+                         "determinant", "signature": "signature"}[key]
+                sep = self.separation.get(key)
+                share = f"   [{sep['count']} table entr{'y' if sep['count'] == 1 else 'ies'}]" \
+                    if sep else ""
+                lines.append(f"  {label:<11} {self.invariants[key]}{share}")
+        if self.resolutions:
+            lines.append("  resolutions of the uncertain crossings:")
+            for r in self.resolutions:
+                lines.append(f"    {r['fraction']:6.1%}  {r['result']}  ({r['count']} of "
+                             f"{r['total']})")
+        if self.neighbours:
+            lines.append("  one crossing change away:")
+            for n in self.neighbours:
+                lines.append(f"    {n['result']}  (crossings {', '.join(map(str, n['crossings']))})")
+        for note in self.notes:
+            lines.append(f"  note: {note}")
+        return "\n".join(lines)

@@ -1,0 +1,146 @@
+"""Identification of scrambled diagrams against the shipped reference table."""
+
+import json
+import random
+
+import pytest
+
+from identify import identify
+from identify.diagram import Diagram
+from identify.reidemeister import scramble
+from identify.table import MIRROR_MARK, open_table
+
+TABLE = open_table()
+PRIMES = [k["name"] for k in TABLE.knots() if k["kind"] == "prime"]
+COMPOSITES = [k["name"] for k in TABLE.knots() if k["kind"] == "composite"]
+
+
+def _form(label):
+    f = TABLE.form(label)
+    return Diagram(f.pd())
+
+
+def _expected(name, mirrored):
+    knot = TABLE.knot(name)
+    if knot["amphichiral"]:
+        return "amphichiral"
+    forms = TABLE.forms_of(name)
+    if forms[0].fingerprint == forms[1].fingerprint:
+        return "undetermined"
+    return "mirror" if mirrored else "same"
+
+
+@pytest.mark.parametrize("name", PRIMES + COMPOSITES)
+def test_scrambled_entries_are_identified(name):
+    """Each table knot, scrambled by 20 random Reidemeister moves and relabelled, and its
+    mirror image, is identified with its name and chirality (seeded per knot)."""
+    rng = random.Random(f"scramble {name}")
+    ref = next(f for f in TABLE.forms_of(name) if f.is_reference)
+    d = Diagram(ref.pd())
+    for mirrored, diagram in ((False, d), (True, d.mirror())):
+        scrambled = scramble(diagram, 20, rng)
+        assert scrambled.number_of_crossings() > diagram.number_of_crossings()
+        result = identify(scrambled, table=TABLE)
+        forms = TABLE.forms_of(name)
+        mirror_form = next((f for f in forms if not f.is_reference), ref)
+        key = mirror_form.fingerprint if mirrored else ref.fingerprint
+        shared = {TABLE.form(label).name for label in TABLE.coincidence("fingerprint", key)}
+        if len(shared) > 1:
+            # a coincidence recorded in the table: every computed invariant agrees
+            assert result.status == "ambiguous"
+            assert {c.name for c in result.candidates} == shared
+            continue
+        assert result.status == "identified", (name, mirrored, result.to_text())
+        cand = result.candidates[0]
+        assert cand.name == name
+        assert cand.chirality == _expected(name, mirrored)
+
+
+def test_figure_eight_is_amphichiral():
+    """4_1 equals its mirror image (common practice; Rolfsen 1976)."""
+    r = identify("DT: 4 6 8 2", table=TABLE)
+    assert r.name == "4_1"
+    assert r.candidates[0].chirality == "amphichiral"
+
+
+def test_trefoils_told_apart_by_jones():
+    """The two trefoils have V(t) = t + t^3 - t^4 and its mirror (Jones 1985)."""
+    right = identify("s1^3", table=TABLE)
+    left = identify("s1^-3", table=TABLE)
+    assert right.name == "3_1" and left.name == "3_1" + MIRROR_MARK
+    assert right.invariants["jones"] == "t + t^3 - t^4"
+    assert left.invariants["jones"] == "-t^-4 + t^-3 + t^-1"
+
+
+def test_granny_and_square_told_apart():
+    """Granny 3_1#3_1 and square 3_1#3_1* share Alexander polynomial and determinant but not
+    the Jones polynomial or the signature (common practice)."""
+    t = Diagram([(1, 5, 2, 4), (3, 1, 4, 6), (5, 3, 6, 2)])
+    granny = identify(t.connected_sum(t), table=TABLE)
+    square = identify(t.connected_sum(t.mirror()), table=TABLE)
+    assert granny.name == "3_1#3_1"
+    assert square.name == "3_1#3_1*"
+    assert square.candidates[0].chirality == "amphichiral"
+    assert granny.invariants["alexander"] == square.invariants["alexander"]
+    assert granny.invariants["jones"] != square.invariants["jones"]
+
+
+def test_uncertain_crossings_give_a_distribution():
+    """Two uncertain crossings of a trefoil: 4 resolutions, 3 unknots and 1 trefoil (an
+    unknotting-number-one fact of the trade: changing any one crossing of the standard
+    trefoil diagram unknots it)."""
+    r = identify("(1,5,2,4)? (3,1,4,6)? (5,3,6,2)", table=TABLE)
+    got = {x["result"]: x["count"] for x in r.resolutions}
+    assert got == {"0_1": 3, "3_1": 1}
+    assert r.status == "ambiguous"
+
+
+def test_too_many_uncertain_crossings():
+    """More than 12 uncertain crossings is refused with a clear error."""
+    from identify.errors import DiagramError
+
+    t = Diagram([(1, 5, 2, 4), (3, 1, 4, 6), (5, 3, 6, 2)])
+    big = t
+    for _ in range(4):
+        big = big.connected_sum(t)
+    from identify.notations.pd import write_pd
+
+    text = write_pd(big, uncertain=range(13))
+    with pytest.raises(DiagramError, match="at most 12"):
+        identify(text, table=TABLE)
+
+
+def test_neighbours_of_the_trefoil():
+    """One crossing change of the standard trefoil diagram gives the unknot."""
+    r = identify("4 6 2", table=TABLE, neighbours=True)
+    assert r.neighbours == [{"result": "0_1", "crossings": [0, 1, 2]}]
+
+
+def test_json_schema():
+    """The JSON fields documented in the README are present with the documented types."""
+    r = identify("4 8 10 2 6", table=TABLE).to_dict()
+    json.dumps(r)
+    assert set(r) >= {"status", "name", "candidates", "invariants", "separation", "notes",
+                      "crossings", "resolutions", "neighbours", "error", "schema_version"}
+    assert r["status"] in ("identified", "ambiguous", "not in table", "error")
+    c = r["candidates"][0]
+    assert set(c) >= {"name", "label", "chirality", "agrees", "crossing_number"}
+    assert c["chirality"] in ("same", "mirror", "amphichiral", "undetermined")
+    assert set(r["invariants"]) == {"components", "jones", "alexander", "determinant",
+                                    "signature"}
+    assert r["separation"]["jones"]["count"] >= 1
+
+
+def test_link_is_not_in_table():
+    """A 2-component link is reported with its invariants and a note."""
+    r = identify("[[1,3,2,4],[3,1,4,2]]", table=TABLE)
+    assert r.status == "not in table"
+    assert r.invariants["jones"] == "-t^(1/2) - t^(5/2)"
+    assert any("link" in n for n in r.notes)
+
+
+def test_unknot_note():
+    """Trivial invariants come with the note that they do not prove the unknot."""
+    r = identify(Diagram([(1, 1, 2, 2)]), table=TABLE)
+    assert r.name == "0_1"
+    assert any("not proven" in n for n in r.notes)

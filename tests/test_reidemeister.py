@@ -1,0 +1,54 @@
+"""Tests of the crossing-adding Reidemeister moves used for scrambling."""
+
+import random
+
+import pytest
+
+from identify.diagram import Diagram
+from identify.errors import DiagramError
+from identify.invariants.jones import jones_polynomial
+from identify.reidemeister import add_bigon, add_kink, scramble
+
+FIGURE_EIGHT = Diagram([(4, 2, 5, 1), (8, 6, 1, 5), (6, 3, 7, 4), (2, 7, 3, 8)])
+
+
+@pytest.mark.parametrize("sign", [1, -1])
+@pytest.mark.parametrize("left", [True, False])
+def test_add_kink_sign_and_invariance(sign, left):
+    """A curl of either sign on either side adds one crossing of that sign and keeps V."""
+    d = add_kink(FIGURE_EIGHT, 5, sign, left)
+    assert d.number_of_crossings() == 5
+    assert d.signs()[-1] == sign
+    assert jones_polynomial(d) == jones_polynomial(FIGURE_EIGHT)
+
+
+def test_add_bigon_everywhere():
+    """Every Reidemeister II move on every pair of edges of every face keeps V."""
+    v = jones_polynomial(FIGURE_EIGHT)
+    for k, face in enumerate(FIGURE_EIGHT.faces()):
+        for a in range(len(face)):
+            for b in range(len(face)):
+                if a != b:
+                    for over in (True, False):
+                        d = add_bigon(FIGURE_EIGHT, k, a, b, over)
+                        assert d.number_of_crossings() == 6
+                        assert jones_polynomial(d) == v
+
+
+def test_scramble_grows_and_keeps_type():
+    """Twenty random moves give a larger diagram of the same knot (seeded)."""
+    rng = random.Random(5)
+    d = scramble(FIGURE_EIGHT, 20, rng)
+    assert d.number_of_crossings() > 20
+    assert d.is_knot()
+    assert jones_polynomial(d) == jones_polynomial(FIGURE_EIGHT)
+
+
+def test_bad_moves_rejected():
+    """Moves on missing edges or with bad parameters raise DiagramError."""
+    with pytest.raises(DiagramError):
+        add_kink(FIGURE_EIGHT, 99)
+    with pytest.raises(DiagramError):
+        add_kink(FIGURE_EIGHT, 1, sign=2)
+    with pytest.raises(DiagramError):
+        add_bigon(FIGURE_EIGHT, 0, 0, 0)
