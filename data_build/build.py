@@ -67,6 +67,7 @@ class BuildReport:
     left_out: list[str]
     coincidences: dict[str, list[list[str]]]
     blind_chiral: list[str]
+    enumeration: dict = field(default_factory=dict)
     seconds: float = 0.0
 
     def summary(self) -> str:
@@ -84,6 +85,12 @@ class BuildReport:
         if self.blind_chiral:
             lines.append("chiral knots the invariants see as mirror-symmetric: "
                          + ", ".join(self.blind_chiral))
+        if self.enumeration:
+            e = self.enumeration
+            lines.append(f"enumerator: knot classes by smallest crossing count "
+                         f"{e['classes_by_crossings']}; {e['named_primes_found']} of "
+                         f"{e['named_primes']} named primes found, {e['unnamed_classes']} "
+                         "classes without a name")
         lines.append(f"build time {self.seconds:.1f} s")
         return "\n".join(lines)
 
@@ -169,9 +176,46 @@ def _coincidence_groups(forms: list[tuple[str, str, dict[str, str]]]) -> dict[st
     return groups
 
 
+def _check_enumeration(built: list[BuiltKnot], max_crossings: int, show_progress
+                       ) -> tuple[list[str], dict]:
+    """Compare the named primes with the classes found by the independent enumerator."""
+    from .enumeration import enumerate_classes
+
+    progress = Progress(None, "enumerated diagrams", enabled=show_progress)
+    classes = enumerate_classes(max_crossings, dt_alternating=min(8, max_crossings),
+                                dt_signed=min(6, max_crossings), progress=progress)
+    progress.close()
+    by_key: dict[str, list[BuiltKnot]] = defaultdict(list)
+    for k in built:
+        by_key[k.fp.unoriented_key()].append(k)
+    problems = []
+    found_at: dict[int, int] = defaultdict(int)
+    unnamed = []
+    for key, cls in sorted(classes.items(), key=lambda kv: (kv[1].min_crossings, kv[0])):
+        found_at[cls.min_crossings] += 1
+        if cls.min_crossings == 0:
+            continue
+        named = by_key.get(key)
+        if not named:
+            unnamed.append(cls)
+            problems.append(f"enumerated class with {cls.min_crossings} crossings matches no "
+                            f"named knot: {cls.examples[0]} (V = {cls.fingerprint.jones})")
+            continue
+        smallest = min(named, key=lambda k: k.crossing_number)
+        if cls.min_crossings < smallest.crossing_number:
+            problems.append(f"{smallest.name} is named with {smallest.crossing_number} "
+                            f"crossings but the enumerator finds its class with "
+                            f"{cls.min_crossings}: {cls.examples[0]}")
+    covered = sum(1 for k in built if k.fp.unoriented_key() in classes)
+    summary = {"classes_by_crossings": {str(c): n for c, n in sorted(found_at.items())},
+               "named_primes_found": covered, "named_primes": len(built),
+               "unnamed_classes": len(unnamed)}
+    return problems, summary
+
+
 def build_table(output: str | Path, max_crossings: int = 10, keep_going: bool = False,
-                sources: ReferenceSources | None = None, show_progress: bool | None = None
-                ) -> BuildReport:
+                sources: ReferenceSources | None = None, show_progress: bool | None = None,
+                enumerate_check: bool = True) -> BuildReport:
     """Build the reference table of knots through ``max_crossings`` crossings.
 
     Parameters
@@ -240,23 +284,16 @@ def build_table(output: str | Path, max_crossings: int = 10, keep_going: bool = 
         if c <= max_crossings and counts.get(c, 0) != n and not keep_going:
             problems.append(f"{counts.get(c, 0)} prime knots of {c} crossings built, the "
                             f"published count is {n}")
-    # prime fingerprints must be distinct up to mirror image
-    by_key: dict[str, list[str]] = defaultdict(list)
-    for k in built:
-        by_key[k.fp.unoriented_key()].append(k.name)
-    clashes = [names for names in by_key.values() if len(names) > 1]
-    for names in clashes:
-        known = [n for n in names if "fingerprint" in src.discrepancies.get(n, {})]
-        if len(known) < len(names) - 1:
-            problems.append(f"knots {', '.join(names)} share every invariant and no "
-                            "documented coincidence explains it (a duplicated construction?)")
+    enumeration = {}
+    if enumerate_check:
+        enum_problems, enumeration = _check_enumeration(built, max_crossings, show_progress)
+        problems.extend(enum_problems)
     if problems and not keep_going:
         raise BuildError("the reference table failed its checks:\n  " + "\n  ".join(problems))
 
     # composites from the primes that passed
     amph_names = {k.name for k in built if k.amphichiral}
     prime_by_name = {k.name: k for k in built}
-    complete = max_crossings if not left_out and not problems else None
     composites: list[BuiltKnot] = []
     prime_info = [(k.name, k.crossing_number, k.amphichiral, k.sort_order) for k in built]
     for n, combo in enumerate(composite_sums(prime_info, max_crossings)):
@@ -287,6 +324,22 @@ def build_table(output: str | Path, max_crossings: int = 10, keep_going: bool = 
             sort_order=sum(s.crossing_number for s in combo) * 10000 + 5000 + n,
             basis="amphichiral" if amph else chirality_basis(fp),
             mirror_label=summand_label(mirror)))
+    # distinct names must have distinct fingerprints, up to mirror image, unless documented
+    by_key: dict[str, list[str]] = defaultdict(list)
+    for k in built + composites:
+        by_key[k.fp.unoriented_key()].append(k.name)
+    for names in by_key.values():
+        if len(names) > 1 and frozenset(names) not in src.coincidences:
+            problems.append(f"knots {', '.join(names)} share every invariant and "
+                            "reference/coincidences.csv does not document it (a duplicated "
+                            "construction?)")
+    if problems and not keep_going:
+        raise BuildError("the reference table failed its checks:\n  " + "\n  ".join(problems))
+    # complete through c: every prime of c or fewer crossings built and checked
+    failed_at = [int(n.split("_")[0]) for n in left_out]
+    complete = min([max_crossings] + [c - 1 for c in failed_at])
+    if complete < 3:
+        complete = None
     unknot = BuiltKnot(name="0_1", kind="unknot", crossing_number=0, alternating=True,
                        amphichiral=True, diagram=Diagram.unknot(),
                        fp=fingerprint(Diagram.unknot()), aliases=["unknot", "trivial knot"],
@@ -332,6 +385,7 @@ def build_table(output: str | Path, max_crossings: int = 10, keep_going: bool = 
         "left_out": ",".join(left_out),
         "prime_counts": json.dumps({str(c): n for c, n in sorted(counts.items())}),
         "composite_count": str(len(composites)),
+        "enumeration": json.dumps(enumeration, sort_keys=True),
         "mirror_mark": MIRROR_MARK,
         "signature_convention": "right-handed trefoil has signature -2",
         "reference_chirality_rule": "negative signature; else Jones leaning to positive "
@@ -346,6 +400,7 @@ def build_table(output: str | Path, max_crossings: int = 10, keep_going: bool = 
     path = Path(output)
     _write(path, meta, knot_rows, form_rows, coincidence_rows)
     report = BuildReport(path=path, counts=dict(counts), composites=len(composites),
+                         enumeration=enumeration,
                          problems=problems, documented=documented, left_out=left_out,
                          coincidences=reported, blind_chiral=blind,
                          seconds=time.monotonic() - start)

@@ -41,6 +41,7 @@ class ReferenceSources:
     jones: dict[str, Laurent]            # recalled Jones polynomials (through 8 crossings)
     signature: dict[str, tuple[int, str]]  # recalled (signature, "signed" | "abs")
     discrepancies: dict[str, dict[str, str]]  # name -> {check: explanation}
+    coincidences: list[frozenset[str]]   # documented groups sharing every invariant
     directory: Path
 
 
@@ -105,5 +106,9 @@ def read_sources(directory: Path | None = None) -> ReferenceSources:
     if (d / "discrepancies.csv").is_file():
         for _, row in _rows(d / "discrepancies.csv"):
             discrepancies.setdefault(row["name"], {})[row["check"]] = row["explanation"]
+    coincidences = []
+    if (d / "coincidences.csv").is_file():
+        coincidences = [frozenset(row["names"].split()) for _, row in
+                        _rows(d / "coincidences.csv")]
     return ReferenceSources(primes, alexander, determinant, amphichiral, jones, signature,
-                            discrepancies, d)
+                            discrepancies, coincidences, d)

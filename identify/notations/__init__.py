@@ -2,6 +2,7 @@
 
 from .braid import braid_word, parse_braid, write_braid
 from .conway import parse_rational, rational_entries, rational_fraction
+from .conway_algebraic import parse_conway_notation
 from .detect import NOTATIONS, detect_notation, parse_any, parse_any_with_uncertain
 from .dt import dt_entries, parse_dt, write_dt
 from .gauss import parse_gauss, parse_gauss_with_uncertain, write_gauss
@@ -27,4 +28,5 @@ __all__ = [
     "parse_rational",
     "rational_entries",
     "rational_fraction",
+    "parse_conway_notation",
 ]

@@ -12,7 +12,9 @@
 5. Any other letter, ``^`` or ``(``: ``"braid"`` (``s1^3 s2^-1``, ``aaaB``).
 6. Integers only (spaces, commas, one pair of brackets):
 
-   a. one unsigned digit string such as ``3`` or ``2112``: ``"conway"``;
+   a. one unsigned digit string such as ``3`` or ``2112``: ``"conway"``
+      (as does any text of digits, ``,+-()`` with a ``*``, ``.`` or ``:``, the
+      algebraic and polyhedral forms such as ``.2.20``, ``8*20`` or ``3:2:2``);
    b. non-zero even numbers whose absolute values are 2, 4, ..., 2n: ``"dt"``;
    c. every absolute value twice, once positive and once negative: ``"gauss"``;
    d. anything else: ``"braid"``.
@@ -29,7 +31,7 @@ from typing import Callable
 from ..diagram import Diagram
 from ..errors import NotationError
 from .braid import parse_braid
-from .conway import parse_rational
+from .conway_algebraic import parse_conway_notation
 from .dt import parse_dt
 from .gauss import parse_gauss_with_uncertain
 from .pd import parse_pd_with_uncertain
@@ -128,6 +130,10 @@ def detect_notation(text: str) -> str:
     named = _named(body)
     if named:
         return named[0]
+    squeezed_body = "".join(body.split())
+    if any(ch in squeezed_body for ch in "*.:") and all(
+            ch in _DIGITS + ",.:*+-()" for ch in squeezed_body):
+        return "conway"  # the algebraic and polyhedral forms: .2.20, 8*20, 3:2:2
     for i, ch in enumerate(body[:-1]):
         if ch in "OoUu" and body[i + 1] in _DIGITS and (i == 0 or not body[i - 1].isalpha()):
             return "gauss"
@@ -174,7 +180,7 @@ _PARSERS: dict[str, Callable[[str], tuple[Diagram, list[int]]]] = {
     "dt": _plain(parse_dt),
     "gauss": parse_gauss_with_uncertain,
     "braid": _plain(parse_braid),
-    "conway": _plain(parse_rational),
+    "conway": _plain(parse_conway_notation),
 }
 
 

@@ -107,8 +107,9 @@ def test_parse_any_braid_writer():
     ("[[1,5,2,4],[3,1,4,6],[5,3,6,2]]", "pd"),
 ])
 def test_parse_any_matches_direct_parser(text, notation):
+    from identify.notations.conway_algebraic import parse_conway_notation
     direct = {"pd": parse_pd, "dt": parse_dt, "gauss": parse_gauss, "braid": parse_braid,
-              "conway": parse_rational}[notation]
+              "conway": parse_conway_notation}[notation]
     assert parse_any(text) == direct(text)
     assert parse_any(text, notation=notation) == direct(text)
 
@@ -188,3 +189,9 @@ def test_parsers_refuse_huge_input(parse, text, fragment):
     with pytest.raises(NotationError) as info:
         parse(text)
     assert fragment in str(info.value)
+
+
+@pytest.mark.parametrize("text", [".2.20", "8*", "3:2:2", "8*20.20", "-20:-20:-20"])
+def test_detect_algebraic_conway(text):
+    """Conway's polyhedral and algebraic forms are recognised by their '*', '.' or ':'."""
+    assert detect_notation(text) == "conway"
