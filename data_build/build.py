@@ -274,7 +274,8 @@ def build_table(output: str | Path, max_crossings: int = 10, keep_going: bool = 
             name=entry.name, kind="prime", crossing_number=entry.crossing_number,
             alternating=entry.alternating, amphichiral=amph, diagram=diagram, fp=fp,
             aliases=entry.aliases, construction=how, source=entry.source,
-            provenance=entry.provenance, sort_order=entry.crossing_number * 10000 + entry.index,
+            provenance=entry.provenance + ("; construction corrected, see "
+                                           "reference/corrections.csv" if entry.correction else ""), sort_order=entry.crossing_number * 10000 + entry.index,
             basis="amphichiral" if amph else chirality_basis(fp)))
     progress.close()
     counts: dict[int, int] = defaultdict(int)

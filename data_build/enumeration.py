@@ -8,14 +8,16 @@ what actually exists:
   ``n`` crossings (numerator closures of rational tangles);
 * Montesinos knots: ramifications ``a,b,c`` and ``a,b,c,d`` of rational
   tangles of either sign, with an extra integer tangle, at most ``n`` crossings;
+* polyhedral knots: every alternating filling of the basic polyhedra 6*, 8*,
+  9* and 10* by positive rational tangles, at most ``n`` crossings;
 * DT codes: every alternating DT code up to ``dt_alternating`` crossings and
   every sign pattern up to ``dt_signed`` crossings (one code per relabelling
   class; unrealisable codes are skipped).
 
 Every knot with at most 8 crossings is alternating through 8 or a Montesinos
 knot (8_19, 8_20, 8_21), so through 8 crossings the enumeration is complete;
-through 10 it covers the rational and Montesinos knots only (not the
-polyhedral ones such as 9_40 or 10_123).
+through 10 it covers the rational, Montesinos and alternating polyhedral
+knots, but not the non-alternating polyhedral ones (such as 10_163).
 """
 
 from __future__ import annotations
@@ -92,6 +94,55 @@ def montesinos_codes(max_crossings: int):
                     yield text, base + abs(extra), t.numerator()
 
 
+def _positive_rational_tangles(max_crossings: int) -> dict[int, list]:
+    """Positive rational tangles by crossing count: one per fraction (and its reflection)."""
+    from identify.tangle import continued_fraction, tangle_from_fraction
+
+    seen: dict = {}
+    for k in range(1, max_crossings + 1):
+        for entries in _compositions(k):
+            f = continued_fraction(list(entries))
+            for g in (f, 1 / f):
+                if g not in seen:
+                    seen[g] = k
+    by_size: dict[int, list] = {}
+    for f, k in sorted(seen.items(), key=lambda kv: (kv[1], kv[0])):
+        by_size.setdefault(k, []).append((f, tangle_from_fraction(f)))
+    return by_size
+
+
+def polyhedral_codes(max_crossings: int):
+    """(text, crossings, Diagram) for alternating fillings of the basic polyhedra.
+
+    Every vertex of 6*, 8*, 9* and 10* gets a positive rational tangle (the
+    tangle 1 by default), which keeps the diagram alternating.
+    """
+    from identify.polyhedra import basic_polyhedron
+
+    tangles = _positive_rational_tangles(max_crossings)
+    for name in ("6*", "8*", "9*", "10*"):
+        poly = basic_polyhedron(name)
+        v = poly.number_of_vertices()
+        if v > max_crossings:
+            continue
+        for total in range(v, max_crossings + 1):
+            for sizes in _compositions_into(total, v):
+                for choice in product(*(tangles[k] for k in sizes)):
+                    text = name + " " + ".".join(str(f) for f, _ in choice)
+                    yield text, total, poly.substitute([t for _, t in choice])
+
+
+def _compositions_into(total: int, parts: int):
+    """Sequences of ``parts`` positive integers with sum ``total``."""
+    if parts == 1:
+        if total >= 1:
+            yield (total,)
+        return
+    for first in range(1, total - parts + 2):
+        for rest in _compositions_into(total - first, parts - 1):
+            yield (first,) + rest
+
+
 def _canonical_pairing(evens: tuple[int, ...]) -> tuple[int, ...]:
     """The smallest DT code of the same unsigned diagram under relabelling (shift, reversal)."""
     n = len(evens)
@@ -148,7 +199,8 @@ class EnumeratedClass:
 
 
 def enumerate_classes(max_crossings: int = 10, dt_alternating: int = 8, dt_signed: int = 6,
-                      montesinos: bool = True, progress=None) -> dict[str, EnumeratedClass]:
+                      montesinos: bool = True, polyhedral: bool = True, progress=None
+                      ) -> dict[str, EnumeratedClass]:
     """Group every enumerated knot diagram by its fingerprint (knots only, links skipped).
 
     Returns
@@ -161,6 +213,8 @@ def enumerate_classes(max_crossings: int = 10, dt_alternating: int = 8, dt_signe
     sources = [("rational", rational_codes(max_crossings))]
     if montesinos:
         sources.append(("montesinos", montesinos_codes(max_crossings)))
+    if polyhedral:
+        sources.append(("polyhedral", polyhedral_codes(max_crossings)))
     sources.append(("dt", dt_codes(dt_alternating, dt_signed)))
     for kind, gen in sources:
         for text, n, diagram in gen:

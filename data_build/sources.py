@@ -26,6 +26,7 @@ class PrimeEntry:
     provenance: str
     aliases: list[str] = field(default_factory=list)
     line: int = 0
+    correction: str = ""   # why the construction differs from the recalled one, if it does
 
     @property
     def index(self) -> int:
@@ -87,6 +88,17 @@ def read_sources(directory: Path | None = None) -> ReferenceSources:
                 provenance=row["provenance"], aliases=aliases.get(row["name"], []), line=line))
         except (KeyError, ValueError) as exc:
             raise TableError(f"{d / 'prime_knots.csv'}, line {line}: bad row ({exc})") from None
+    corrections_file = d / "corrections.csv"
+    if corrections_file.is_file():
+        by_name = {p.name: p for p in primes}
+        for line, row in _rows(corrections_file):
+            entry = by_name.get(row["name"])
+            if entry is None or row["field"] != "conway" or entry.conway != row["recalled"]:
+                raise TableError(f"{corrections_file}, line {line}: the correction does not "
+                                 f"match a recalled Conway notation ({row['name']}, "
+                                 f"{row['recalled']!r})")
+            entry.conway = row["corrected"]
+            entry.correction = row["reason"]
     alexander, determinant = {}, {}
     for line, row in _rows(d / "alexander.csv"):
         where = f"{d / 'alexander.csv'}, line {line}"

@@ -54,10 +54,9 @@ def test_shipped_counts_through_complete_part():
         TABLE.metadata["prime_counts"]).items()}
     for c in range(3, int(complete) + 1):
         assert counts[c] == PRIME_COUNTS[c]
-    # the shipped table is whole through 9 crossings at least
-    assert int(complete) >= 9
-    for c in range(3, 10):
-        assert counts[c] == PRIME_COUNTS[c]
+    # the shipped table is whole through 10 crossings
+    assert complete == "10"
+    assert counts == PRIME_COUNTS
 
 
 TORUS = {"3_1": (2, 3), "5_1": (2, 5), "7_1": (2, 7), "9_1": (2, 9), "8_19": (3, 4),
