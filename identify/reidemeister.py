@@ -12,7 +12,7 @@ import random
 from .diagram import Diagram
 from .errors import DiagramError
 
-__all__ = ["add_kink", "add_bigon", "scramble", "shuffle_labels"]
+__all__ = ["add_kink", "add_bigon", "r3_triangles", "apply_r3", "scramble", "shuffle_labels"]
 
 
 def _fresh(diagram: Diagram, k: int) -> list[int]:
@@ -124,6 +124,64 @@ def add_bigon(diagram: Diagram, face: int, first: int, second: int, over: bool =
                                          diagram.free_loops)
 
 
+def r3_triangles(diagram: Diagram) -> list[int]:
+    """Indices of faces where a Reidemeister III move applies.
+
+    A triangular face with three different crossings and three different edges,
+    one of whose strands passes over (equivalently, one under) at both of its
+    crossings on the triangle.
+    """
+    out = []
+    xs = diagram.crossings
+    for f, face in enumerate(diagram.faces()):
+        if len(face) != 3 or len({c for c, _ in face}) != 3:
+            continue
+        (c1, k1), (c2, k2), (c3, k3) = face
+        edges = {xs[c1][(k1 + 1) % 4], xs[c2][(k2 + 1) % 4], xs[c3][(k3 + 1) % 4]}
+        if len(edges) != 3:
+            continue
+        # strand S1 sits at entry k1+1 of c1 and entry k2 of c2, and so on round the face
+        strands = [((k1 + 1) % 4, k2 % 4), ((k2 + 1) % 4, k3 % 4), ((k3 + 1) % 4, k1 % 4)]
+        if any(a % 2 == 1 and b % 2 == 1 for a, b in strands):
+            out.append(f)
+    return out
+
+
+def apply_r3(diagram: Diagram, face: int) -> Diagram:
+    """Reidemeister III on a triangular face listed by :func:`r3_triangles`.
+
+    Each of the three strands keeps its over/under relations, but meets its two
+    crossings of the triangle in the opposite order; the outer edges are kept.
+    """
+    if face not in r3_triangles(diagram):
+        raise DiagramError(f"face {face} is not a triangle where Reidemeister III applies",
+                           value=face)
+    xs = [list(x) for x in diagram.crossings]
+    (c1, k1), (c2, k2), (c3, k3) = diagram.faces()[face]
+
+    def at(c: int, k: int) -> int:
+        return diagram.crossings[c][k % 4]
+
+    # strands (running o -> crossing -> inner edge -> crossing -> o):
+    # S1: o1b -> c1 -> e1 -> c2 -> o2a;  S2: o2b -> c2 -> e2 -> c3 -> o3a;
+    # S3: o3b -> c3 -> e3 -> c1 -> o1a
+    o1a, o1b = at(c1, k1 + 2), at(c1, k1 + 3)
+    o2a, o2b = at(c2, k2 + 2), at(c2, k2 + 3)
+    o3a, o3b = at(c3, k3 + 2), at(c3, k3 + 3)
+    n1, n2, n3 = _fresh(diagram, 3)  # the new inner edges of S1, S2, S3
+    new1 = list(xs[c1])  # becomes S1 x S3, now after S1 x S2 along S1
+    new1[(k1 + 3) % 4], new1[(k1 + 1) % 4] = n1, o2a
+    new1[k1 % 4], new1[(k1 + 2) % 4] = o3b, n3
+    new2 = list(xs[c2])  # S1 x S2
+    new2[k2 % 4], new2[(k2 + 2) % 4] = o1b, n1
+    new2[(k2 + 3) % 4], new2[(k2 + 1) % 4] = n2, o3a
+    new3 = list(xs[c3])  # S2 x S3
+    new3[k3 % 4], new3[(k3 + 2) % 4] = o2b, n2
+    new3[(k3 + 3) % 4], new3[(k3 + 1) % 4] = n3, o1a
+    xs[c1], xs[c2], xs[c3] = new1, new2, new3
+    return Diagram([tuple(x) for x in xs], diagram.free_loops)
+
+
 def shuffle_labels(diagram: Diagram, rng: random.Random) -> Diagram:
     """Rename edges at random and reorder (and rotate nothing: PD entries keep their order)."""
     labels = sorted({e for x in diagram.crossings for e in x})
@@ -135,12 +193,18 @@ def shuffle_labels(diagram: Diagram, rng: random.Random) -> Diagram:
 
 
 def scramble(diagram: Diagram, moves: int, rng: random.Random) -> Diagram:
-    """Apply ``moves`` random Reidemeister I and II moves that add crossings, then relabel."""
+    """Apply ``moves`` random Reidemeister moves (I and II adding crossings, III), then relabel."""
     current = diagram
     if not current.crossings:
         current = add_kink_to_circle()
     for _ in range(moves):
-        if rng.random() < 0.4:
+        roll = rng.random()
+        if roll < 0.3:
+            triangles = r3_triangles(current)
+            if triangles:
+                current = apply_r3(current, rng.choice(triangles))
+                continue
+        if roll < 0.55:
             labels = sorted({e for x in current.crossings for e in x})
             current = add_kink(current, rng.choice(labels), rng.choice((1, -1)),
                                rng.random() < 0.5)

@@ -52,3 +52,34 @@ def test_bad_moves_rejected():
         add_kink(FIGURE_EIGHT, 1, sign=2)
     with pytest.raises(DiagramError):
         add_bigon(FIGURE_EIGHT, 0, 0, 0)
+
+
+def test_r3_keeps_invariants_and_changes_the_diagram():
+    """Reidemeister III on every applicable triangle of random braid closures keeps the whole
+    fingerprint (common practice: invariants are invariant) while changing the PD code."""
+    from identify.invariants.fingerprint import fingerprint
+    from identify.reidemeister import apply_r3, r3_triangles
+    from tests.strategies import braid_closure
+
+    rng = random.Random(33)
+    applied = 0
+    for _ in range(60):
+        word = [rng.choice([1, -1]) * rng.randint(1, 3) for _ in range(rng.randint(4, 9))]
+        d = braid_closure(word, 4)
+        for f in r3_triangles(d):
+            e = apply_r3(d, f)
+            assert e.crossings != d.crossings
+            assert e.number_of_crossings() == d.number_of_crossings()
+            assert fingerprint(e, simplified=True) == fingerprint(d, simplified=True)
+            applied += 1
+    assert applied > 20
+
+
+def test_r3_refuses_an_alternating_triangle():
+    """The trefoil's triangles alternate (each strand over once): no R3 move applies there."""
+    from identify.reidemeister import apply_r3, r3_triangles
+
+    t = Diagram([(1, 5, 2, 4), (3, 1, 4, 6), (5, 3, 6, 2)])
+    assert r3_triangles(t) == []
+    with pytest.raises(DiagramError):
+        apply_r3(t, 0)
