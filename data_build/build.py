@@ -25,7 +25,7 @@ from identify.simplify import simplify
 from identify.table import MIRROR_MARK, SCHEMA_VERSION, schema
 
 from .chirality import chirality_basis, is_reference_chirality
-from .composites import Summand, composite_sums, mirror_of, sum_diagram, summand_label
+from .composites import composite_sums, mirror_of, sum_diagram, summand_label
 from .sources import PrimeEntry, ReferenceSources, read_sources
 
 __all__ = ["BuildError", "BuildReport", "build_table", "construct", "PRIME_COUNTS"]

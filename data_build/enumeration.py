@@ -25,7 +25,6 @@ from __future__ import annotations
 from dataclasses import dataclass, field
 from itertools import permutations, product
 
-from identify.diagram import Diagram
 from identify.errors import KnotsiftError
 from identify.invariants.fingerprint import Fingerprint, fingerprint
 from identify.simplify import simplify

@@ -18,7 +18,7 @@ from typing import Iterable, Sequence
 
 from .errors import DiagramError
 
-__all__ = ["Diagram"]
+__all__ = ["Diagram", "join_edges"]
 
 Crossing = tuple[int, int, int, int]
 Dart = tuple[int, int]  # (crossing index, position 0..3)
@@ -437,29 +437,7 @@ class Diagram:
             pairs = ((a, b), (d, c))
         else:
             pairs = ((a, d), (b, c))
-        parent: dict[int, int] = {}
-
-        def find(u: int) -> int:
-            parent.setdefault(u, u)
-            while parent[u] != u:
-                parent[u] = parent[parent[u]]
-                u = parent[u]
-            return u
-
-        for u, v in pairs:
-            ru, rv = find(u), find(v)
-            if ru != rv:
-                parent[ru] = rv
-        rest = [x for k, x in enumerate(self._crossings) if k != i]
-        used: dict[int, int] = {}
-        for x in rest:
-            for e in x:
-                if e in parent:
-                    used[find(e)] = used.get(find(e), 0) + 1
-        roots = {find(e) for e in (a, b, c, d)}
-        loops = sum(1 for r in roots if used.get(r, 0) == 0)
-        new = [tuple(find(e) if e in parent else e for e in x) for x in rest]
-        return Diagram(new, self._free_loops + loops)
+        return join_edges(self._crossings, {i}, pairs, self._free_loops)
 
     def connected_sum(self, other: "Diagram", edge: int | None = None,
                       other_edge: int | None = None) -> "Diagram":
@@ -514,3 +492,37 @@ class Diagram:
     def __repr__(self) -> str:
         extra = f", free_loops={self._free_loops}" if self._free_loops else ""
         return f"Diagram({[list(x) for x in self._crossings]!r}{extra})"
+
+
+def join_edges(crossings: Sequence[Sequence[int]], drop: set[int],
+               pairs: Iterable[tuple[int, int]], free_loops: int) -> Diagram:
+    """Delete the crossings ``drop`` and join the edge labels in ``pairs`` into single edges.
+
+    A chain of joined labels that no remaining crossing uses is a closed circle
+    and becomes a free loop.  Used by smoothings and by simplification.
+    """
+    pairs = list(pairs)
+    parent: dict[int, int] = {}
+
+    def find(u: int) -> int:
+        parent.setdefault(u, u)
+        while parent[u] != u:
+            parent[u] = parent[parent[u]]
+            u = parent[u]
+        return u
+
+    for u, v in pairs:
+        ru, rv = find(u), find(v)
+        if ru != rv:
+            parent[ru] = rv
+    rest = [tuple(x) for k, x in enumerate(crossings) if k not in drop]
+    used: dict[int, int] = {}
+    for x in rest:
+        for e in x:
+            if e in parent:
+                r = find(e)
+                used[r] = used.get(r, 0) + 1
+    roots = {find(u) for pair in pairs for u in pair}
+    loops = sum(1 for r in roots if used.get(r, 0) == 0)
+    new = [tuple(find(e) if e in parent else e for e in x) for x in rest]
+    return Diagram(new, free_loops + loops)

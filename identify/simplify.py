@@ -13,38 +13,9 @@ a diagram projected from 3D coordinates; it is not guaranteed to be minimal.
 
 from __future__ import annotations
 
-from .diagram import Diagram
+from .diagram import Diagram, join_edges
 
 __all__ = ["simplify", "remove_nugatory", "remove_bigon"]
-
-
-def _merge(crossings: list[tuple[int, ...]], drop: set[int], pairs: list[tuple[int, int]],
-           free_loops: int) -> Diagram:
-    """Delete crossings ``drop`` and join the edge labels in ``pairs``."""
-    parent: dict[int, int] = {}
-
-    def find(u: int) -> int:
-        parent.setdefault(u, u)
-        while parent[u] != u:
-            parent[u] = parent[parent[u]]
-            u = parent[u]
-        return u
-
-    for u, v in pairs:
-        ru, rv = find(u), find(v)
-        if ru != rv:
-            parent[ru] = rv
-    rest = [x for k, x in enumerate(crossings) if k not in drop]
-    used: dict[int, int] = {}
-    for x in rest:
-        for e in x:
-            if e in parent:
-                r = find(e)
-                used[r] = used.get(r, 0) + 1
-    roots = {find(u) for pair in pairs for u in pair}
-    loops = sum(1 for r in roots if used.get(r, 0) == 0)
-    new = [tuple(find(e) if e in parent else e for e in x) for x in rest]
-    return Diagram(new, free_loops + loops)
 
 
 def _flipped(x: tuple[int, int, int, int], sign: int) -> tuple[int, int, int, int]:
@@ -87,7 +58,7 @@ def remove_nugatory(diagram: Diagram) -> Diagram | None:
             signs = diagram.signs()
             new = [(_flipped(y, signs[j]) if j in side else y) for j, y in enumerate(xs)]
             pairs = [(x[(k + 1) % 4], x[(k + 3) % 4]), (x[(k + 2) % 4], x[k])]
-            return _merge(new, {i}, pairs, diagram.free_loops)
+            return join_edges(new, {i}, pairs, diagram.free_loops)
     return None
 
 
@@ -112,7 +83,7 @@ def remove_bigon(diagram: Diagram) -> Diagram | None:
             (xs[i][(p1_i + 2) % 4], e1), (e1, xs[j][(p1_j + 2) % 4]),
             (xs[j][(p2_j + 2) % 4], e2), (e2, xs[i][(p2_i + 2) % 4]),
         ]
-        return _merge(list(xs), {i, j}, pairs, diagram.free_loops)
+        return join_edges(list(xs), {i, j}, pairs, diagram.free_loops)
     return None
 
 

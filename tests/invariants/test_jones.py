@@ -11,7 +11,7 @@ from identify.invariants.jones import jones_polynomial
 from identify.invariants.state_sum import jones_by_states
 from identify.laurent import Laurent
 from identify.reidemeister import scramble, shuffle_labels
-from tests.strategies import braid_closure, braid_words
+from tests.strategies import braid_closure, braid_words, knot_braid_words
 
 RIGHT_TREFOIL = Diagram([(1, 5, 2, 4), (3, 1, 4, 6), (5, 3, 6, 2)])
 FIGURE_EIGHT = Diagram([(4, 2, 5, 1), (8, 6, 1, 5), (6, 3, 7, 4), (2, 7, 3, 8)])
@@ -140,8 +140,8 @@ def test_mirror_inverts_t(wb):
 
 
 @settings(max_examples=25, deadline=None)
-@given(braid_words(max_strands=3, max_length=7, knots_only=True),
-       braid_words(max_strands=3, max_length=7, knots_only=True))
+@given(knot_braid_words(max_strands=3, max_length=6),
+       knot_braid_words(max_strands=3, max_length=6))
 def test_connected_sum_multiplies(a, b):
     """V(K1 # K2) = V(K1) V(K2) (common practice)."""
     k1, k2 = braid_closure(*a), braid_closure(*b)
