@@ -57,11 +57,15 @@ def _lines(lines: list[str], where: str) -> list[tuple[str, str]]:
 
 
 def _cmd_identify(args) -> int:
-    from .identification import identify
+    from .curves.commands import identify_coordinate_files
     from .errors import KnotsiftError
+    from .identification import identify
     from .result import IdentifyResult
     from .table import open_table
 
+    routed = identify_coordinate_files(args)  # FILE.xyz / .pdb / .npy: the 3D pipeline
+    if routed is not None:
+        return routed
     table = open_table(args.table)
     items = _inputs(args)
     if not items:
@@ -141,6 +145,7 @@ def _cmd_lookup(args) -> int:
 
 def _cmd_build(args) -> int:
     from data_build.build import build_table
+
     from .table import default_table_path
 
     out = args.output or default_table_path()
@@ -198,6 +203,14 @@ def _parser() -> argparse.ArgumentParser:
                    help="leave out entries failing a check instead of stopping")
     b.add_argument("--quiet", action="store_true", help="no progress or summary")
     b.set_defaults(func=_cmd_build)
+
+    from .curves.commands import register as register_curve  # knots in 3D coordinates
+
+    register_curve(sub)
+
+    from .bulk.commands import register as register_bulk  # classify, summarise
+
+    register_bulk(sub, NOTATION_CHOICES)
     return p
 
 

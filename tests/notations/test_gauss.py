@@ -1,7 +1,7 @@
 """Tests of identify.notations.gauss."""
 
 import pytest
-from hypothesis import assume, given, settings
+from hypothesis import HealthCheck, assume, given, settings
 from hypothesis import strategies as st
 from known_knots import (
     DT_CODES,
@@ -162,7 +162,7 @@ def test_write_gauss_round_trip_braid_closures(word):
     assert jones(back) == jones(d)
 
 
-@settings(max_examples=30, deadline=None)
+@settings(max_examples=30, deadline=None, suppress_health_check=[HealthCheck.filter_too_much])
 @given(st.lists(st.sampled_from([1, 2, -1, -2]), min_size=2, max_size=5))
 def test_parse_gauss_unsigned_matches_signed_up_to_mirror(word):
     """Dropping the signs of a small knot's code gives the knot or its mirror image."""

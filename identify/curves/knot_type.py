@@ -1,0 +1,111 @@
+"""The knot type of closed polygons: reduce, project, simplify, fingerprint.
+
+This is the one place where coordinates become exact invariants: the
+reduced polygon is projected to a :class:`~identify.diagram.Diagram`, which
+is simplified and fingerprinted by the core (:mod:`identify.invariants`).
+Fingerprints are cached by the simplified diagram, since many closures of
+one chain give the same small diagram.
+"""
+
+from __future__ import annotations
+
+from collections import OrderedDict
+from dataclasses import dataclass
+
+import numpy as np
+
+from ..diagram import Diagram
+from ..errors import CurveError
+from ..invariants.fingerprint import Fingerprint, fingerprint
+from ..simplify import simplify
+from .kmt import KMT_TOL, kmt_reduce
+from .projection import PROJECTION_TOL, project
+
+__all__ = ["PolygonType", "polygon_type", "cached_fingerprint", "MAX_CROSSINGS"]
+
+#: Simplified diagrams with more crossings than this are not fingerprinted:
+#: the invariants' cost grows too fast (a curve this entangled is far beyond
+#: any table anyway).  Raise it at your own risk of memory and time.
+MAX_CROSSINGS = 300
+
+_CACHE: OrderedDict[Diagram, Fingerprint] = OrderedDict()
+_CACHE_SIZE = 4096
+
+
+def cached_fingerprint(simple: Diagram) -> Fingerprint:
+    """The fingerprint of an already simplified diagram, cached."""
+    fp = _CACHE.get(simple)
+    if fp is None:
+        fp = fingerprint(simple, simplified=True)
+        _CACHE[simple] = fp
+        if len(_CACHE) > _CACHE_SIZE:
+            _CACHE.popitem(last=False)
+    else:
+        _CACHE.move_to_end(simple)
+    return fp
+
+
+@dataclass
+class PolygonType:
+    """What one closed polygon (or set of rings) reduced to.
+
+    Attributes
+    ----------
+    fingerprint : Fingerprint
+    diagram : Diagram
+        The projected diagram (before simplification).
+    simplified : Diagram
+    vertices_in, vertices_reduced : int
+    crossings : int
+        Crossings of the projection (before simplification).
+    redraws : int
+        Projection directions rejected as degenerate.
+    projection : Projection
+    """
+
+    fingerprint: Fingerprint
+    diagram: Diagram
+    simplified: Diagram
+    vertices_in: int
+    vertices_reduced: int
+    crossings: int
+    redraws: int
+    projection: object
+
+
+def polygon_type(chains: list[tuple[np.ndarray, bool]], rng: np.random.Generator,
+                 reduce: bool = True, simplified: bool = True, where: str = "",
+                 with_fingerprint: bool = True) -> PolygonType:
+    """Reduce (KMT), project and fingerprint closed chains in median-bond units.
+
+    Parameters
+    ----------
+    chains : list of (vertices, closed)
+        All closed.
+    rng : numpy Generator
+        View directions.
+    reduce : bool
+        Apply the KMT reduction first (off only for the plain path in benchmarks).
+    simplified : bool
+        Simplify the diagram before the invariants (off only for benchmarks).
+    with_fingerprint : bool
+        Compute the fingerprint (off when only crossings are needed).
+    """
+    n_in = sum(len(x) for x, _ in chains)
+    if reduce:
+        chains = kmt_reduce(chains, tol=KMT_TOL).chains
+    proj = project(chains, rng, tol=PROJECTION_TOL, where=where)
+    d = proj.diagram
+    simple = simplify(d) if simplified else d
+    if with_fingerprint and simplified and simple.number_of_crossings() > MAX_CROSSINGS:
+        raise CurveError(
+            f"the reduced curve still projects to {simple.number_of_crossings()} crossings after "
+            f"simplification (limit {MAX_CROSSINGS}); its invariants are not computed (the "
+            "knot is far beyond the table)", value=simple.number_of_crossings(),
+            where=where or None)
+    if with_fingerprint:
+        fp = cached_fingerprint(simple) if simplified else fingerprint(simple, simplified=True)
+    else:
+        fp = None
+    return PolygonType(fp, d, simple, n_in, sum(len(x) for x, _ in chains),
+                       d.number_of_crossings(), proj.redraws, proj)
