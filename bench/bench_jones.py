@@ -51,5 +51,40 @@ def main() -> None:
               f"(median of 5 diagrams; slowest {max(times):.4f})")
 
 
+def projected_polygons(target: int, count: int, seed: int) -> list:
+    """Unsimplified diagrams of random equilateral polygons with about ``target`` crossings."""
+    import numpy as np
+
+    from bench.random_polygons import random_polygon
+    from identify.curves.projection import curve_diagram
+
+    rng = np.random.default_rng(seed)
+    found = []
+    beads = max(20, int(2.2 * target ** 0.75))
+    while len(found) < count:
+        d = curve_diagram([(random_polygon(beads, rng), True)], seed=rng)
+        n = d.number_of_crossings()
+        if abs(n - target) <= target // 10:
+            found.append(d)
+        elif n < target:
+            beads += 2
+        else:
+            beads = max(10, beads - 2)
+    return found
+
+
+def polygon_section() -> None:
+    print("projected random equilateral polygons (not simplified):")
+    for target in (40, 80):
+        times, widths, sizes = [], [], []
+        for d in projected_polygons(target, 5, seed=target):
+            widths.append(contraction_width(d))
+            sizes.append(d.number_of_crossings())
+            times.append(median_time(jones_polynomial, d, 1))
+        print(f"  ~{target} crossings ({min(sizes)}-{max(sizes)}), width <= {max(widths)}: "
+              f"median {statistics.median(times):.3f} s, slowest {max(times):.3f} s")
+
+
 if __name__ == "__main__":
     main()
+    polygon_section()
