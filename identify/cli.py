@@ -207,10 +207,6 @@ def _parser() -> argparse.ArgumentParser:
     from .curves.commands import register as register_curve  # knots in 3D coordinates
 
     register_curve(sub)
-
-    from .bulk.commands import register as register_bulk  # classify, summarise
-
-    register_bulk(sub, NOTATION_CHOICES)
     return p
 
 
