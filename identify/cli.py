@@ -204,6 +204,10 @@ def _parser() -> argparse.ArgumentParser:
     b.add_argument("--quiet", action="store_true", help="no progress or summary")
     b.set_defaults(func=_cmd_build)
 
+    from .bulk.commands import register as register_bulk  # classify, summarise
+
+    register_bulk(sub, NOTATION_CHOICES)
+
     from .curves.commands import register as register_curve  # knots in 3D coordinates
 
     register_curve(sub)

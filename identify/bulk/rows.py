@@ -1,0 +1,242 @@
+"""One output row per item: the knot, its invariants and what it cost.
+
+A row is a flat dict with the columns of :data:`COLUMNS`, so that every sink
+(CSV, Parquet, SQL) stores the same table.  A bad item (an invalid code, a
+corrupt frame, a chain passing through itself) becomes a row with status
+``error`` and the message in ``error``; it never stops a run.
+"""
+
+from __future__ import annotations
+
+import json
+import time
+from dataclasses import asdict, dataclass
+
+from ..errors import KnotsiftError
+
+__all__ = ["COLUMNS", "TIMING_COLUMNS", "ClassifyOptions", "classify_item", "classify_chunk",
+           "row_from_result"]
+
+#: (name, type, meaning) of every output column, in order; type is int, float or text.
+COLUMNS: tuple[tuple[str, str, str], ...] = (
+    ("key", "text", "source:frame:chain, unique"),
+    ("source", "text", "the input file as given"),
+    ("frame", "int", "line number (codes) or frame index from 0 (trajectories)"),
+    ("chain", "int", "chain index within the frame (0 for codes)"),
+    ("label", "text", "label given with the input (empty text is stored as null)"),
+    ("fields", "text", "JSON of the other columns of a code table"),
+    ("kind", "text", "code or frame"),
+    ("notation", "text", "notation read (codes)"),
+    ("n_beads", "int", "number of beads (curves)"),
+    ("closure", "text", "how an open chain was closed: direct, far, stochastic"),
+    ("status", "text", "identified, ambiguous, not in table, undetermined (no majority "
+                       "over closures), error"),
+    ("knot", "text", "identified label with the mirror mark, e.g. 3_1*"),
+    ("knot_type", "text", "identified knot without chirality, e.g. 3_1"),
+    ("chirality", "text", "same, mirror, amphichiral or undetermined"),
+    ("candidates", "text", "every candidate label, joined by ' or '"),
+    ("crossings_input", "int", "crossings of the diagram as given or projected"),
+    ("crossings_simplified", "int", "crossings after simplification"),
+    ("components", "int", "number of components"),
+    ("jones", "text", "Jones polynomial, canonical text"),
+    ("alexander", "text", "Alexander polynomial, canonical text"),
+    ("determinant", "int", "determinant"),
+    ("signature", "int", "signature (right-handed trefoil -2)"),
+    ("resolutions", "text", "JSON distribution over uncertain crossings (codes)"),
+    ("closure_spectrum", "text", "JSON [{type, count, fraction}] over closures (open chains)"),
+    ("core_start", "int", "first bead of the knotted core (with --core)"),
+    ("core_end", "int", "last bead of the knotted core (below core_start when it wraps round)"),
+    ("linking", "text", "JSON {other ring: linking number} for the rings of the frame"),
+    ("seconds", "float", "time spent on this row (a frame's time is shared by its chains)"),
+    ("error", "text", "the message when status is error"),
+)
+
+#: Columns that differ between two runs of the same input.
+TIMING_COLUMNS = ("seconds",)
+
+COLUMN_NAMES = tuple(c[0] for c in COLUMNS)
+_TEXT_COLUMNS = tuple(c[0] for c in COLUMNS if c[1] == "text")
+
+
+@dataclass(frozen=True)
+class ClassifyOptions:
+    """What changes a row: stored with the output and checked on resume.
+
+    Parameters
+    ----------
+    notation : str, optional
+        Read every code in this notation instead of detecting it.
+    closed : bool, optional
+        Trajectory chains are rings (True) or open chains (False); default per
+        format (PDB open, the others rings).
+    closure : str
+        How open chains are closed: direct, far or stochastic (identify.curves).
+    n_closures : int
+        Random closures of a stochastic closure.
+    seed : int
+        Seeds every random step of the 3D pipeline (projections, closures).
+    core : bool
+        Also find the knotted core of knotted chains (slower).
+    beads_per_chain : int, optional
+        Split each XYZ frame into chains of this many beads.
+    table : str, optional
+        A reference table file instead of the shipped one.
+    """
+
+    notation: str | None = None
+    closed: bool | None = None
+    closure: str = "stochastic"
+    n_closures: int = 100
+    seed: int = 0
+    core: bool = False
+    beads_per_chain: int | None = None
+    table: str | None = None
+
+    def to_dict(self) -> dict:
+        return asdict(self)
+
+
+def _empty_row(item, chain: int = 0) -> dict:
+    row = dict.fromkeys(COLUMN_NAMES)
+    row.update(key=item.keys[chain], source=item.source, frame=item.frame,
+               chain=item.chain + chain, label=item.label or None,
+               fields=item.fields or None, kind=item.kind)
+    return row
+
+
+def row_from_result(row: dict, result) -> dict:
+    """Fill ``row`` from an :class:`~identify.result.IdentifyResult`."""
+    row["status"] = result.status
+    row["notation"] = row.get("notation") or result.notation or None
+    if result.status == "error":
+        row["error"] = result.error
+        return row
+    cands = result.candidates
+    if result.status == "identified" and cands:
+        row["knot"] = result.name
+        row["knot_type"] = cands[0].name
+        row["chirality"] = cands[0].chirality
+    row["candidates"] = " or ".join(c.label if c.chirality in ("same", "mirror") else c.name
+                                    for c in cands) or None
+    row["crossings_input"] = result.crossings_input
+    row["crossings_simplified"] = result.crossings_simplified
+    inv = result.invariants
+    row["components"] = int(inv["components"]) if inv.get("components") else None
+    row["jones"] = inv.get("jones") or None
+    row["alexander"] = inv.get("alexander") or None
+    row["determinant"] = int(inv["determinant"]) if inv.get("determinant") else None
+    row["signature"] = int(inv["signature"]) if inv.get("signature") else None
+    if result.resolutions:
+        row["resolutions"] = json.dumps(result.resolutions, sort_keys=True)
+    return row
+
+
+def _fail(row: dict, exc: BaseException) -> dict:
+    row["status"] = "error"
+    if isinstance(exc, KnotsiftError):
+        row["error"] = str(exc)
+    else:  # a bug must not stop a run of many items, but is marked as one
+        row["error"] = f"internal error: {type(exc).__name__}: {exc}"
+    return row
+
+
+def _classify_code(item, options: ClassifyOptions, table, row: dict) -> dict:
+    from ..identification import identify
+
+    where = f"{item.source}, line {item.frame}" + (f" ({item.label})" if item.label else "")
+    result = identify(item.payload, options.notation, table=table, label=where)
+    return row_from_result(row, result)
+
+
+def _linking_by_chain(linking: list[dict]) -> dict[str, dict[str, int]]:
+    out: dict[str, dict[str, int]] = {}
+    for lk in linking:
+        out.setdefault(lk["a"], {})[lk["b"]] = lk["linking_number"]
+        out.setdefault(lk["b"], {})[lk["a"]] = lk["linking_number"]
+    return out
+
+
+def _classify_frame(item, options: ClassifyOptions, table) -> list[dict]:
+    """The rows of one trajectory frame, one per chain, through identify.curves.identify_frame.
+
+    This is the seam between bulk classification and the 3D pipeline: the
+    only place that calls identify.curves' pipeline.
+    """
+    from ..curves import identify_frame
+
+    start = time.perf_counter()
+    found = identify_frame(item.payload, closure=options.closure, n_closures=options.n_closures,
+                           seed=options.seed, localise=options.core, table=table,
+                           linking=True)
+    share = (time.perf_counter() - start) / max(1, len(found.chains))
+    links = _linking_by_chain(found.linking)
+    rows = []
+    for c, result in enumerate(found.chains):
+        row = _empty_row(item, c)
+        row["label"] = result.chain or None
+        row["n_beads"] = result.beads
+        row_from_result(row, result)
+        row["notation"] = None
+        row["closure"] = result.closure
+        if result.spectrum:
+            row["closure_spectrum"] = json.dumps(
+                [{k: s[k] for k in ("type", "count", "fraction")} for s in result.spectrum])
+        if result.core:
+            row["core_start"], row["core_end"] = result.core["start"], result.core["end"]
+        if result.chain in links:
+            row["linking"] = json.dumps(links[result.chain], sort_keys=True)
+        row["seconds"] = share   # the frame's time, shared among its chains
+        rows.append(row)
+    return rows
+
+
+def _finish(row: dict) -> dict:
+    for name in _TEXT_COLUMNS:  # one form of "nothing" in every sink (CSV has no other)
+        if row[name] == "":
+            row[name] = None
+    return row
+
+
+def classify_item(item, options: ClassifyOptions | None = None, table=None) -> list[dict]:
+    """The output rows of one item (one per chain); errors become rows with status ``error``.
+
+    Examples
+    --------
+    >>> from identify.bulk.sources import Item
+    >>> (row,) = classify_item(Item("x:1:0", "x", 1, 0, "code", "DT: 4 6 8 2"))
+    >>> row["knot"], row["chirality"], row["determinant"]
+    ('4_1', 'amphichiral', 5)
+    >>> classify_item(Item("x:2:0", "x", 2, 0, "code", "[[1,2]]"))[0]["status"]
+    'error'
+    """
+    from ..table import open_table
+
+    options = options or ClassifyOptions()
+    if item.kind == "frame" and item.error is None:
+        try:
+            return [_finish(r) for r in _classify_frame(item, options,
+                                                        table or open_table(options.table))]
+        except Exception as exc:  # noqa: BLE001 - the whole frame failed
+            rows = [_fail(_empty_row(item, c), exc) for c in range(item.n_rows)]
+            for r in rows:
+                r["seconds"] = 0.0
+            return [_finish(r) for r in rows]
+    row = _empty_row(item)
+    start = time.perf_counter()
+    try:
+        if item.error:
+            row["status"], row["error"] = "error", item.error
+        else:
+            _classify_code(item, options, table or open_table(options.table), row)
+    except Exception as exc:  # noqa: BLE001 - recorded in the row, see _fail
+        _fail(row, exc)
+    row["seconds"] = time.perf_counter() - start
+    return [_finish(row)]
+
+
+def classify_chunk(items: list, options: ClassifyOptions) -> list[dict]:
+    """Rows of a chunk of items (the unit of work sent to a process or a Dask worker)."""
+    from ..table import open_table
+
+    table = open_table(options.table)
+    return [row for item in items for row in classify_item(item, options, table)]
