@@ -17,6 +17,7 @@ from __future__ import annotations
 from typing import Iterable, Sequence
 
 from .errors import DiagramError
+from .partition import Partition
 
 __all__ = ["Diagram", "join_edges"]
 
@@ -288,19 +289,10 @@ class Diagram:
         seen: set[Dart] = set()
         faces_of: dict[int, int] = {}
         # connected components of the 4-valent graph
-        comp_of = list(range(len(xs)))
-
-        def find(a: int) -> int:
-            while comp_of[a] != a:
-                comp_of[a] = comp_of[comp_of[a]]
-                a = comp_of[a]
-            return a
-
-        for ds in darts.values():
-            (i, _), (j, _) = ds
-            ri, rj = find(i), find(j)
-            if ri != rj:
-                comp_of[ri] = rj
+        parts = Partition(range(len(xs)))
+        find = parts.find
+        for (i, _), (j, _) in darts.values():
+            parts.join(i, j)
         for i in range(len(xs)):
             for p in range(4):
                 d = (i, p)
@@ -502,27 +494,17 @@ def join_edges(crossings: Sequence[Sequence[int]], drop: set[int],
     and becomes a free loop.  Used by smoothings and by simplification.
     """
     pairs = list(pairs)
-    parent: dict[int, int] = {}
-
-    def find(u: int) -> int:
-        parent.setdefault(u, u)
-        while parent[u] != u:
-            parent[u] = parent[parent[u]]
-            u = parent[u]
-        return u
-
+    merged = Partition()
     for u, v in pairs:
-        ru, rv = find(u), find(v)
-        if ru != rv:
-            parent[ru] = rv
+        merged.join(u, v)
     rest = [tuple(x) for k, x in enumerate(crossings) if k not in drop]
     used: dict[int, int] = {}
     for x in rest:
         for e in x:
-            if e in parent:
-                r = find(e)
+            if e in merged:
+                r = merged.find(e)
                 used[r] = used.get(r, 0) + 1
-    roots = {find(u) for pair in pairs for u in pair}
+    roots = {merged.find(u) for pair in pairs for u in pair}
     loops = sum(1 for r in roots if used.get(r, 0) == 0)
-    new = [tuple(find(e) if e in parent else e for e in x) for x in rest]
+    new = [tuple(merged.find(e) if e in merged else e for e in x) for x in rest]
     return Diagram(new, free_loops + loops)

@@ -39,6 +39,7 @@ from typing import Iterable, Sequence
 
 from .diagram import Diagram
 from .errors import DiagramError
+from .partition import Partition
 
 __all__ = [
     "Tangle",
@@ -56,26 +57,6 @@ CORNERS = ("nw", "ne", "sw", "se")
 Quad = tuple[int, int, int, int]
 
 
-class _Merger:
-    """Union-find over edge labels, used when ends are joined."""
-
-    def __init__(self) -> None:
-        self.parent: dict[int, int] = {}
-
-    def find(self, u: int) -> int:
-        parent = self.parent
-        parent.setdefault(u, u)
-        while parent[u] != u:
-            parent[u] = parent[parent[u]]
-            u = parent[u]
-        return u
-
-    def join(self, u: int, v: int) -> None:
-        ru, rv = self.find(u), self.find(v)
-        if ru != rv:
-            self.parent[max(ru, rv)] = min(ru, rv)
-
-
 def _glue(quads: Sequence[Quad], ends: Sequence[int], pairs: Iterable[tuple[int, int]],
           loops: int) -> tuple[list[Quad], list[int], int]:
     """Join labels in ``pairs``; return the quads and kept ends renamed, and the loop count.
@@ -83,11 +64,11 @@ def _glue(quads: Sequence[Quad], ends: Sequence[int], pairs: Iterable[tuple[int,
     A class of joined labels that no quad and no kept end uses any more is a
     closed loop without crossings.
     """
-    m = _Merger()
+    m = Partition()
     labels = {e for q in quads for e in q} | set(ends)
     for a, b in pairs:
         labels.update((a, b))
-        m.join(a, b)
+        m.join(a, b, to_smaller=True)
     new_quads = [tuple(m.find(e) for e in q) for q in quads]
     new_ends = [m.find(e) for e in ends]
     used = {e for q in new_quads for e in q} | set(new_ends)

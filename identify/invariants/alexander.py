@@ -7,6 +7,7 @@ from typing import Sequence
 from ..diagram import Diagram
 from ..errors import InvariantError
 from ..laurent import Laurent
+from ..partition import Partition
 from .elimination import linear_polynomial_determinant
 
 __all__ = ["alexander_matrix", "alexander_polynomial"]
@@ -20,21 +21,10 @@ Entry = tuple[int, int]  # c0 + c1 t
 
 def _arcs(diagram: Diagram) -> dict[int, int]:
     """Arc index of every edge label: edges joined through over-passages form one arc."""
-    parent: dict[int, int] = {}
-
-    def find(u: int) -> int:
-        parent.setdefault(u, u)
-        while parent[u] != u:
-            parent[u] = parent[parent[u]]
-            u = parent[u]
-        return u
-
+    arcs = Partition(e for x in diagram.crossings for e in x)
+    find = arcs.find
     for x in diagram.crossings:
-        for e in x:
-            find(e)
-        ru, rv = find(x[1]), find(x[3])
-        if ru != rv:
-            parent[ru] = rv
+        arcs.join(x[1], x[3])
     index: dict[int, int] = {}
     arc_of: dict[int, int] = {}
     for x in diagram.crossings:  # number arcs by the crossing where they end under

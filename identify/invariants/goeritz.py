@@ -36,6 +36,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 from ..diagram import Diagram
+from ..partition import Partition
 
 __all__ = ["GoeritzForm", "checkerboard_colouring", "diagram_pieces", "goeritz_forms"]
 
@@ -64,20 +65,11 @@ class GoeritzForm:
 def diagram_pieces(diagram: Diagram) -> list[list[int]]:
     """Crossing indices of each connected piece of the diagram's 4-valent graph."""
     n = diagram.number_of_crossings()
-    parent = list(range(n))
-
-    def find(a: int) -> int:
-        while parent[a] != a:
-            parent[a] = parent[parent[a]]
-            a = parent[a]
-        return a
-
+    parts = Partition(range(n))
+    find = parts.find
     for i in range(n):
         for p in range(4):
-            j, _ = diagram.other_end(i, p)
-            ri, rj = find(i), find(j)
-            if ri != rj:
-                parent[ri] = rj
+            parts.join(i, diagram.other_end(i, p)[0])
     pieces: dict[int, list[int]] = {}
     for i in range(n):
         pieces.setdefault(find(i), []).append(i)
