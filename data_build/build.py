@@ -25,13 +25,22 @@ from identify.simplify import simplify
 from identify.table import MIRROR_MARK, SCHEMA_VERSION, schema
 
 from .chirality import chirality_basis, is_reference_chirality
-from .composites import composite_sums, mirror_of, sum_diagram, summand_label
+from .composites import (
+    composite_sums,
+    mirror_of,
+    sum_diagram,
+    sum_fingerprint,
+    summand_label,
+)
 from .sources import PrimeEntry, ReferenceSources, read_sources
 
 __all__ = ["BuildError", "BuildReport", "build_table", "construct", "PRIME_COUNTS"]
 
 #: Prime knots by crossing number 3..10 (Rolfsen 1976; Hoste, Thistlethwaite and Weeks 1998).
 PRIME_COUNTS = {3: 1, 4: 1, 5: 2, 6: 3, 7: 7, 8: 21, 9: 49, 10: 165}
+
+
+CORRECTED_NOTE = "; construction corrected, see reference/corrections.csv"
 
 
 class BuildError(TableError):
@@ -154,7 +163,8 @@ def _check_prime(entry: PrimeEntry, d: Diagram, fp: Fingerprint, src: ReferenceS
         span = fp.jones.span()
         if span != entry.crossing_number:
             out.append(("kmt", f"alternating, but span V = {span} differs from the crossing "
-                               f"number {entry.crossing_number} (Kauffman-Murasugi-Thistlethwaite)"))
+                               f"number {entry.crossing_number} "
+                               "(Kauffman-Murasugi-Thistlethwaite)"))
     if recollection_is_consistent(entry, src, "jones"):
         v = src.jones[entry.name]
         if fp.jones not in (v, v.mirror()):
@@ -166,11 +176,13 @@ def _check_prime(entry: PrimeEntry, d: Diagram, fp: Fingerprint, src: ReferenceS
     return out
 
 
-def _coincidence_groups(forms: list[tuple[str, str, dict[str, str]]]) -> dict[str, dict[str, list[str]]]:
+def _coincidence_groups(forms: list[tuple[str, dict[str, str]]]
+                        ) -> dict[str, dict[str, list[str]]]:
+    """For each invariant, the values shared by several forms, with their labels."""
     groups: dict[str, dict[str, list[str]]] = {}
     for inv in ("jones", "alexander", "determinant", "signature", "fingerprint"):
         by_value: dict[str, list[str]] = defaultdict(list)
-        for label, name, texts in forms:
+        for label, texts in forms:
             by_value[texts[inv]].append(label)
         groups[inv] = {v: sorted(ls) for v, ls in by_value.items() if len(ls) > 1}
     return groups
@@ -274,8 +286,8 @@ def build_table(output: str | Path, max_crossings: int = 10, keep_going: bool = 
             name=entry.name, kind="prime", crossing_number=entry.crossing_number,
             alternating=entry.alternating, amphichiral=amph, diagram=diagram, fp=fp,
             aliases=entry.aliases, construction=how, source=entry.source,
-            provenance=entry.provenance + ("; construction corrected, see "
-                                           "reference/corrections.csv" if entry.correction else ""), sort_order=entry.crossing_number * 10000 + entry.index,
+            provenance=entry.provenance + (CORRECTED_NOTE if entry.correction else ""),
+            sort_order=entry.crossing_number * 10000 + entry.index,
             basis="amphichiral" if amph else chirality_basis(fp)))
     progress.close()
     counts: dict[int, int] = defaultdict(int)
@@ -303,9 +315,7 @@ def build_table(output: str | Path, max_crossings: int = 10, keep_going: bool = 
             k = prime_by_name[s.name]
             diagrams.append(k.diagram.mirror() if s.mirrored else k.diagram)
             prints.append(k.fp.mirror() if s.mirrored else k.fp)
-        fp = prints[0]
-        for p in prints[1:]:
-            fp = fp * p
+        fp = sum_fingerprint(prints)
         mirror = mirror_of(combo, amph_names)
         amph = sorted(mirror, key=lambda s: (s.name, s.mirrored)) == sorted(
             combo, key=lambda s: (s.name, s.mirrored))
@@ -350,7 +360,7 @@ def build_table(output: str | Path, max_crossings: int = 10, keep_going: bool = 
     # forms
     form_rows = []
     for k in everything:
-        variants = [(k.name if k.kind != "composite" else k.name, True, k.diagram, k.fp)]
+        variants = [(k.name, True, k.diagram, k.fp)]
         if not k.amphichiral:
             mlabel = k.mirror_label or (k.name + MIRROR_MARK)
             variants.append((mlabel, False, k.diagram.mirror(), k.fp.mirror()))
@@ -363,10 +373,11 @@ def build_table(output: str | Path, max_crossings: int = 10, keep_going: bool = 
                 "pd_code": json.dumps(d.pd_code()),
             })
     blind = [k.name for k in everything if not k.amphichiral and k.fp.is_mirror_blind()]
-    groups = _coincidence_groups([(r["label"], r["name"], {
+    groups = _coincidence_groups([(r["label"], {
         "jones": r["jones"], "alexander": r["alexander"], "determinant": str(r["determinant"]),
         "signature": str(r["signature"]), "fingerprint": r["fingerprint"]}) for r in form_rows])
     # a mirror-blind chiral knot's two forms always share values: not a coincidence of names
+    name_of = {r["label"]: r["name"] for r in form_rows}
     coincidence_rows = []
     reported: dict[str, list[list[str]]] = {}
     for inv, by_value in groups.items():
@@ -374,8 +385,7 @@ def build_table(output: str | Path, max_crossings: int = 10, keep_going: bool = 
         for value, labels in sorted(by_value.items()):
             coincidence_rows.append({"invariant": inv, "value": value, "count": len(labels),
                                      "labels": ",".join(labels)})
-            names = {r["name"] for r in form_rows if r["label"] in labels}
-            if len(names) > 1:
+            if len({name_of[label] for label in labels}) > 1:
                 reported[inv].append(labels)
     meta = {
         "schema_version": str(SCHEMA_VERSION),

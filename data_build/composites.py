@@ -57,25 +57,19 @@ def composite_sums(primes: list[tuple[str, int, bool, int]], max_crossings: int)
     all_summands = [s for e in prime_info for s in choices(e)]
     key = lambda s: (order[s.name], s.mirrored)  # noqa: E731
     all_summands.sort(key=key)
+    amphichiral = {n for n, _, a in prime_info if a}
     seen: set[tuple] = set()
     for size in range(2, max_crossings // 3 + 1):
         for combo in combinations_with_replacement(all_summands, size):
             if sum(s.crossing_number for s in combo) > max_crossings:
                 continue
             combo = tuple(sorted(combo, key=key))
-            amph = {s.name for s in combo if s.name in _amphichiral_names(prime_info)}
-            mirror = tuple(sorted((Summand(s.name, s.crossing_number,
-                                           (not s.mirrored) and s.name not in amph)
-                                   for s in combo), key=key))
+            mirror = tuple(sorted(mirror_of(combo, amphichiral), key=key))
             canon = min(combo, mirror, key=lambda t: [key(s) for s in t])
             if canon in seen:
                 continue
             seen.add(canon)
             yield canon
-
-
-def _amphichiral_names(prime_info) -> set[str]:
-    return {n for n, _, a in prime_info if a}
 
 
 def mirror_of(summands: tuple[Summand, ...], amphichiral: set[str]) -> tuple[Summand, ...]:

@@ -177,9 +177,10 @@ def identify_diagram(diagram: Diagram, table: ReferenceTable | None = None,
     return result
 
 
-def _short(result_status: str, candidates: list[Candidate], fp: Fingerprint) -> str:
+def _short(candidates: list[Candidate], jones: str) -> str:
+    """One line naming the candidates, or the Jones polynomial when nothing matched."""
     if not candidates:
-        return f"not in table (V = {fp.jones})"
+        return f"not in table (V = {jones})"
     shown = [c.label if c.chirality in ("same", "mirror") else c.name for c in candidates]
     return " or ".join(shown)
 
@@ -190,7 +191,7 @@ def crossing_change_neighbours(diagram: Diagram, table: ReferenceTable) -> list[
     for i in range(diagram.number_of_crossings()):
         fp = fingerprint(diagram.crossing_change(i))
         status, cands = match_fingerprint(fp, table)
-        found.setdefault(_short(status, cands, fp), []).append(i)
+        found.setdefault(_short(cands, str(fp.jones)), []).append(i)
     return [{"result": k, "crossings": v} for k, v in sorted(found.items(), key=lambda kv: kv[1])]
 
 
@@ -199,7 +200,7 @@ def _resolutions(diagram: Diagram, uncertain: list[int], table: ReferenceTable
     """Identify every resolution of the uncertain crossings: the distribution and candidates."""
     total = 1 << len(uncertain)
     counts: Counter[str] = Counter()
-    cands: dict[str, Candidate] = {}
+    found_by: dict[str, list[Candidate]] = {}
     for mask in range(total):
         d = diagram
         for bit, i in enumerate(uncertain):
@@ -207,14 +208,12 @@ def _resolutions(diagram: Diagram, uncertain: list[int], table: ReferenceTable
                 d = d.crossing_change(i)
         fp = fingerprint(d)
         status, found = match_fingerprint(fp, table)
-        key = _short(status, found, fp)
+        key = _short(found, str(fp.jones))
         counts[key] += 1
-        for c in found:
-            cands.setdefault(key + c.label, c)
-    ordered = sorted(cands.items(), key=lambda kv: -counts[next(
-        k for k in counts if kv[0].startswith(k))])
+        found_by.setdefault(key, found)
+    ranked = counts.most_common()
     return ([{"result": k, "count": v, "total": total, "fraction": v / total}
-             for k, v in counts.most_common()], [c for _, c in ordered])
+             for k, v in ranked], [c for k, _ in ranked for c in found_by[k]])
 
 
 def identify(source, notation: str | None = None, *, table: ReferenceTable | None = None,
@@ -264,7 +263,7 @@ def identify(source, notation: str | None = None, *, table: ReferenceTable | Non
                            value=len(uncertain))
     result = identify_diagram(diagram, table, neighbours, label, used)
     if uncertain:
-        as_drawn = _short(result.status, result.candidates, fingerprint(diagram))
+        as_drawn = _short(result.candidates, result.invariants["jones"])
         result.resolutions, resolved = _resolutions(diagram, uncertain, table)
         seen = [r["result"] for r in result.resolutions]
         if len(seen) > 1:
