@@ -20,8 +20,8 @@ from pathlib import Path
 
 sys.path.insert(0, str(Path(__file__).resolve().parents[1]))
 
-from identify.diagram import Diagram  # noqa: E402
-from identify.invariants.alexander import alexander_polynomial  # noqa: E402
+from knotsift.diagram import Diagram  # noqa: E402
+from knotsift.invariants.alexander import alexander_polynomial  # noqa: E402
 from tests.strategies import braid_closure, random_knot_braid  # noqa: E402
 
 

@@ -9,7 +9,7 @@ What is measured, all in one run on this machine:
 
 1. ``--frames`` ring frames of 200 beads (closed Gaussian random walks, the
    mean step subtracted so each closes; deterministic seed), one XYZ file,
-   classified into SQLite by ``identify.bulk.classify`` with 1 worker (in
+   classified into SQLite by ``knotsift.bulk.classify`` with 1 worker (in
    this process) and with 2 worker processes: frames per second and their
    ratio.
 2. Peak resident memory of a ``knotsift classify`` process over ``--long``
@@ -70,7 +70,7 @@ def _cpu() -> float:
 def timed_run(src: Path, out: Path, **kw) -> tuple[float, object]:
     """Wall time and report of one run; report.cores is the CPU time it got per wall second
     (below the worker count when other processes share the machine)."""
-    from identify.bulk.runner import classify
+    from knotsift.bulk.runner import classify
 
     start, cpu = time.perf_counter(), _cpu()
     report = classify([src], out, progress=False, **kw)
@@ -84,7 +84,7 @@ def timed_run(src: Path, out: Path, **kw) -> tuple[float, object]:
 # The workers' figure is ru_maxrss of the waited-for children: an upper bound.
 _MEMORY_PROBE = """
 import json, resource, sys
-from identify.cli import main
+from knotsift.cli import main
 code = main(sys.argv[1:])
 hwm = next(int(line.split()[1]) for line in open("/proc/self/status")
            if line.startswith("VmHWM"))
@@ -122,7 +122,7 @@ def main() -> None:
     ap.add_argument("--chunk", type=int, default=200, help="chunk size (default 200)")
     args = ap.parse_args()
 
-    from identify.bulk.summary import knot_spectrum, read_results
+    from knotsift.bulk.summary import knot_spectrum, read_results
 
     print(f"{os.cpu_count()} cores; load average before: "
           f"{', '.join(f'{x:.2f}' for x in os.getloadavg())} (other processes skew the ratios)")

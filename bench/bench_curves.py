@@ -1,4 +1,4 @@
-"""Benchmark: identifying knots in 3D coordinates (identify.curves), end to end.
+"""Benchmark: identifying knots in 3D coordinates (knotsift.curves), end to end.
 
 Prints, all measured in this one run on this machine:
 
@@ -34,12 +34,12 @@ sys.path.insert(0, str(Path(__file__).resolve().parent))
 
 from random_polygons import random_polygon  # noqa: E402
 
-from identify.curves import identify_curve  # noqa: E402
-from identify.curves.contact import check_no_contact  # noqa: E402
-from identify.curves.frame import Chain, prepare_chains  # noqa: E402
-from identify.curves.knot_type import polygon_type  # noqa: E402
-from identify.identification import match_fingerprint  # noqa: E402
-from identify.table import open_table  # noqa: E402
+from knotsift.curves import identify_curve  # noqa: E402
+from knotsift.curves.contact import check_no_contact  # noqa: E402
+from knotsift.curves.frame import Chain, prepare_chains  # noqa: E402
+from knotsift.curves.knot_type import polygon_type  # noqa: E402
+from knotsift.identification import match_fingerprint  # noqa: E402
+from knotsift.table import open_table  # noqa: E402
 from tests.curves.curves import moved, right_torus_knot, with_tails  # noqa: E402
 
 
@@ -54,7 +54,7 @@ def median_time(fn, repeats: int) -> tuple[float, object]:
 
 def knotted_ring(n: int, noise: float, seed: int) -> np.ndarray:
     """T(2,5) with Gaussian noise: the first seed from ``seed`` whose ring does not touch itself."""
-    from identify.errors import CurveError
+    from knotsift.errors import CurveError
 
     while True:
         x = moved(right_torus_knot(2, 5, n), np.random.default_rng(seed), noise=noise)
@@ -68,8 +68,8 @@ def knotted_ring(n: int, noise: float, seed: int) -> np.ndarray:
 
 def geometry_only(x: np.ndarray) -> int:
     """Checks, KMT reduction and one projection (what the 3D part adds to the core)."""
-    from identify.curves.kmt import kmt_reduce
-    from identify.curves.projection import project
+    from knotsift.curves.kmt import kmt_reduce
+    from knotsift.curves.projection import project
 
     prep = prepare_chains([Chain("A", x, True)])
     y = prep.chains[0].coords

@@ -18,10 +18,10 @@ from pathlib import Path
 
 sys.path.insert(0, str(Path(__file__).resolve().parents[1]))
 
-from identify import identify  # noqa: E402
-from identify.diagram import Diagram  # noqa: E402
-from identify.reidemeister import scramble  # noqa: E402
-from identify.table import open_table  # noqa: E402
+from knotsift import identify  # noqa: E402
+from knotsift.diagram import Diagram  # noqa: E402
+from knotsift.reidemeister import scramble  # noqa: E402
+from knotsift.table import open_table  # noqa: E402
 
 
 def main() -> None:
@@ -44,7 +44,7 @@ def main() -> None:
     walls = []
     for _ in range(7):
         t0 = time.perf_counter()
-        subprocess.run([sys.executable, "-m", "identify", "identify", "4 6 2"], check=True,
+        subprocess.run([sys.executable, "-m", "knotsift", "identify", "4 6 2"], check=True,
                        capture_output=True)
         walls.append(time.perf_counter() - t0)
     print(f"`knotsift identify '4 6 2'` as a process: median {statistics.median(walls):.3f} s")

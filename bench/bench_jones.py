@@ -17,9 +17,9 @@ from pathlib import Path
 
 sys.path.insert(0, str(Path(__file__).resolve().parents[1]))
 
-from identify.invariants.bracket import contraction_width  # noqa: E402
-from identify.invariants.jones import jones_polynomial  # noqa: E402
-from identify.invariants.state_sum import jones_by_states  # noqa: E402
+from knotsift.invariants.bracket import contraction_width  # noqa: E402
+from knotsift.invariants.jones import jones_polynomial  # noqa: E402
+from knotsift.invariants.state_sum import jones_by_states  # noqa: E402
 from tests.strategies import braid_closure, random_knot_braid  # noqa: E402
 
 
@@ -56,7 +56,7 @@ def projected_polygons(target: int, count: int, seed: int) -> list:
     import numpy as np
 
     from bench.random_polygons import random_polygon
-    from identify.curves.projection import curve_diagram
+    from knotsift.curves.projection import curve_diagram
 
     rng = np.random.default_rng(seed)
     found = []

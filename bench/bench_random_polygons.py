@@ -26,11 +26,11 @@ sys.path.insert(0, str(Path(__file__).resolve().parent))
 
 from random_polygons import random_polygon  # noqa: E402
 
-from identify.curves.contact import check_no_contact  # noqa: E402
-from identify.curves.frame import Chain, prepare_chains  # noqa: E402
-from identify.curves.kmt import kmt_reduce  # noqa: E402
-from identify.curves.knot_type import polygon_type  # noqa: E402
-from identify.errors import CurveError  # noqa: E402
+from knotsift.curves.contact import check_no_contact  # noqa: E402
+from knotsift.curves.frame import Chain, prepare_chains  # noqa: E402
+from knotsift.curves.kmt import kmt_reduce  # noqa: E402
+from knotsift.curves.knot_type import polygon_type  # noqa: E402
+from knotsift.errors import CurveError  # noqa: E402
 
 N0_PUBLISHED = 265  # Deguchi and Tsurusaki 1997 (from memory)
 

@@ -14,9 +14,9 @@ from pathlib import Path
 
 sys.path.insert(0, str(Path(__file__).resolve().parents[1]))
 
-from identify.diagram import Diagram  # noqa: E402
-from identify.invariants.fingerprint import fingerprint  # noqa: E402
-from identify.table import open_table  # noqa: E402
+from knotsift.diagram import Diagram  # noqa: E402
+from knotsift.invariants.fingerprint import fingerprint  # noqa: E402
+from knotsift.table import open_table  # noqa: E402
 
 
 def main() -> None:

@@ -17,12 +17,12 @@ from collections import defaultdict
 from dataclasses import dataclass, field
 from pathlib import Path
 
-from identify.diagram import Diagram
-from identify.errors import KnotsiftError, TableError
-from identify.invariants.fingerprint import Fingerprint, fingerprint
-from identify.progress import Progress
-from identify.simplify import simplify
-from identify.table import MIRROR_MARK, SCHEMA_VERSION, schema
+from knotsift.diagram import Diagram
+from knotsift.errors import KnotsiftError, TableError
+from knotsift.invariants.fingerprint import Fingerprint, fingerprint
+from knotsift.progress import Progress
+from knotsift.simplify import simplify
+from knotsift.table import MIRROR_MARK, SCHEMA_VERSION, schema
 
 from .chirality import chirality_basis, is_reference_chirality
 from .composites import (
@@ -108,17 +108,17 @@ def construct(entry: PrimeEntry) -> tuple[Diagram, str]:
     """The construction diagram of a named prime knot and a text saying which notation."""
     if entry.conway:
         try:
-            from identify.notations.conway_algebraic import parse_conway_notation
+            from knotsift.notations.conway_algebraic import parse_conway_notation
         except ImportError:  # pragma: no cover - only while the full notation is missing
             parse_conway_notation = None
         if parse_conway_notation is not None:
             return parse_conway_notation(entry.conway), f"conway: {entry.conway}"
         if entry.conway.isdigit():
-            from identify.notations.conway import parse_rational
+            from knotsift.notations.conway import parse_rational
 
             return parse_rational(entry.conway), f"conway: {entry.conway}"
     if entry.dt_code:
-        from identify.notations.dt import parse_dt
+        from knotsift.notations.dt import parse_dt
 
         return parse_dt(entry.dt_code), f"dt: {entry.dt_code}"
     raise BuildError(f"{entry.name}: no usable construction (Conway notation "
@@ -424,7 +424,7 @@ def _package_version() -> str:
 
         return version("knotsift")
     except Exception:  # not installed (running from a checkout)
-        from identify import __version__
+        from knotsift import __version__
 
         return __version__
 

@@ -16,7 +16,7 @@ rebuilds are reproducible and users can apply it themselves:
 
 from __future__ import annotations
 
-from identify.invariants.fingerprint import Fingerprint
+from knotsift.invariants.fingerprint import Fingerprint
 
 __all__ = ["is_reference_chirality", "chirality_basis"]
 

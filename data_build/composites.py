@@ -11,9 +11,9 @@ from __future__ import annotations
 from dataclasses import dataclass
 from itertools import combinations_with_replacement
 
-from identify.diagram import Diagram
-from identify.invariants.fingerprint import Fingerprint
-from identify.table import MIRROR_MARK
+from knotsift.diagram import Diagram
+from knotsift.invariants.fingerprint import Fingerprint
+from knotsift.table import MIRROR_MARK
 
 __all__ = ["Summand", "composite_sums", "summand_label"]
 

@@ -25,9 +25,9 @@ from __future__ import annotations
 from dataclasses import dataclass, field
 from itertools import permutations, product
 
-from identify.errors import KnotsiftError
-from identify.invariants.fingerprint import Fingerprint, fingerprint
-from identify.simplify import simplify
+from knotsift.errors import KnotsiftError
+from knotsift.invariants.fingerprint import Fingerprint, fingerprint
+from knotsift.simplify import simplify
 
 __all__ = ["EnumeratedClass", "enumerate_classes", "rational_codes", "montesinos_codes",
            "dt_codes"]
@@ -45,7 +45,7 @@ def _compositions(total: int):
 
 def rational_codes(max_crossings: int):
     """(text, Diagram) for rational knots and links with at most ``max_crossings`` crossings."""
-    from identify.tangle import rational_tangle
+    from knotsift.tangle import rational_tangle
 
     for n in range(3, max_crossings + 1):
         for entries in _compositions(n):
@@ -67,7 +67,7 @@ def _rational_parts(max_crossings: int):
 
 def montesinos_codes(max_crossings: int):
     """(text, crossings, Diagram) for ramifications of 3 or 4 rational tangles plus an integer."""
-    from identify.tangle import integer_tangle, ramification, rational_tangle
+    from knotsift.tangle import integer_tangle, ramification, rational_tangle
 
     parts = _rational_parts(max_crossings - 4)
     for k in (3, 4):
@@ -95,7 +95,7 @@ def montesinos_codes(max_crossings: int):
 
 def _positive_rational_tangles(max_crossings: int) -> dict[int, list]:
     """Positive rational tangles by crossing count: one per fraction (and its reflection)."""
-    from identify.tangle import continued_fraction, tangle_from_fraction
+    from knotsift.tangle import continued_fraction, tangle_from_fraction
 
     seen: dict = {}
     for k in range(1, max_crossings + 1):
@@ -116,7 +116,7 @@ def polyhedral_codes(max_crossings: int):
     Every vertex of 6*, 8*, 9* and 10* gets a positive rational tangle (the
     tangle 1 by default), which keeps the diagram alternating.
     """
-    from identify.polyhedra import basic_polyhedron
+    from knotsift.polyhedra import basic_polyhedron
 
     tangles = _positive_rational_tangles(max_crossings)
     for name in ("6*", "8*", "9*", "10*"):
@@ -169,7 +169,7 @@ def _canonical_pairing(evens: tuple[int, ...]) -> tuple[int, ...]:
 
 def dt_codes(max_alternating: int, max_signed: int):
     """(text, crossings, Diagram) for DT codes, one per relabelling class, realisable only."""
-    from identify.notations.dt import parse_dt
+    from knotsift.notations.dt import parse_dt
 
     for n in range(3, max_alternating + 1):
         for perm in permutations(range(2, 2 * n + 1, 2)):

@@ -7,8 +7,8 @@ from dataclasses import dataclass, field
 from importlib import resources
 from pathlib import Path
 
-from identify.errors import TableError
-from identify.laurent import Laurent
+from knotsift.errors import TableError
+from knotsift.laurent import Laurent
 
 __all__ = ["PrimeEntry", "ReferenceSources", "read_sources", "reference_dir"]
 
@@ -48,7 +48,7 @@ class ReferenceSources:
 
 def reference_dir() -> Path:
     """The reference/ folder: the source checkout's, or the installed package's copy."""
-    return Path(str(resources.files("reference")))
+    return Path(str(resources.files("knotsift.reference")))
 
 
 def _rows(path: Path) -> list[tuple[int, dict[str, str]]]:

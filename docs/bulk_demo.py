@@ -43,12 +43,12 @@ def write_rings(path: Path, beads: int, n: int, seed: int) -> None:
 
 def knotsift(*args: str) -> None:
     print("$ knotsift " + " ".join(args))
-    subprocess.run([sys.executable, "-m", "identify", *args], check=False, cwd=REPO)
+    subprocess.run([sys.executable, "-m", "knotsift", *args], check=False, cwd=REPO)
 
 
 def main() -> None:
-    from identify.demo import demo_path
-    from identify.demo.ring_polymer import demo_xyz_path
+    from knotsift.demo import demo_path
+    from knotsift.demo.ring_polymer import demo_xyz_path
 
     with tempfile.TemporaryDirectory(prefix="knotsift-demo-") as d:
         tmp = Path(d)

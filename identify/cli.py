@@ -144,7 +144,7 @@ def _cmd_lookup(args) -> int:
 
 
 def _cmd_build(args) -> int:
-    from data_build.build import build_table
+    from knotsift.data_build.build import build_table
 
     from .table import default_table_path
 

@@ -1,8 +1,8 @@
 """Identifying a diagram: fingerprint, table lookup, chirality verdict and notes.
 
-The path of the data: text -> :class:`~identify.diagram.Diagram` ->
-simplified diagram -> :class:`~identify.invariants.fingerprint.Fingerprint` ->
-table lookup -> :class:`~identify.result.IdentifyResult`.
+The path of the data: text -> :class:`~knotsift.diagram.Diagram` ->
+simplified diagram -> :class:`~knotsift.invariants.fingerprint.Fingerprint` ->
+table lookup -> :class:`~knotsift.result.IdentifyResult`.
 """
 
 from __future__ import annotations
@@ -224,7 +224,7 @@ def identify(source, notation: str | None = None, *, table: ReferenceTable | Non
     ----------
     source : Diagram or str
         A diagram, or a code in any notation (auto-detected, see
-        :func:`identify.notations.detect.detect_notation`).
+        :func:`knotsift.notations.detect.detect_notation`).
     notation : str, optional
         Read the text in this notation instead of detecting it.
     table : ReferenceTable, optional

@@ -71,7 +71,7 @@ image).  Independently, 19 of the 20 amphichiral knots of
 ``reference/amphichiral.csv`` come out with a symmetric Jones polynomial,
 among them 8_17 ``.2.2``, 10_88 ``.21.21``, 10_99 ``.2.2.20.20``, 10_115
 ``8*20.20`` and 10_118 ``8*2:.2``; the exception is 10_109 ``2.2.2.2``.  The
-reading of ``.`` and ``:`` is in :mod:`identify.notations.conway_algebraic`.
+reading of ``.`` and ``:`` is in :mod:`knotsift.notations.conway_algebraic`.
 """
 
 from __future__ import annotations
@@ -184,7 +184,7 @@ class Polyhedron:
 
         Examples
         --------
-        >>> from identify.tangle import integer_tangle
+        >>> from knotsift.tangle import integer_tangle
         >>> basic_polyhedron("6*").substitute([None, integer_tangle(2)]).number_of_crossings()
         7
         """

@@ -114,7 +114,7 @@ class TableForm:
 
 def default_table_path() -> Path:
     """Where the shipped table lives inside the installed package."""
-    return Path(str(resources.files("identify") / "data" / "knots.sqlite"))
+    return Path(str(resources.files("knotsift") / "data" / "knots.sqlite"))
 
 
 _FORM_COLUMNS = ("label, name, is_reference, components, jones, alexander, determinant, "

@@ -3,7 +3,7 @@
 A tangle sits in a box with its four ends at the corners NW, NE, SW and SE.
 Its crossings are counter-clockwise quads of edge labels whose under-strand
 is at entries 0 and 2; the direction of travel is left open and fixed only
-when a closure makes a :class:`~identify.diagram.Diagram` (through
+when a closure makes a :class:`~knotsift.diagram.Diagram` (through
 :meth:`Diagram.from_planar_crossings`).
 
 Conventions (Conway 1970; Kauffman and Lambropoulou 2004):
@@ -12,7 +12,7 @@ Conventions (Conway 1970; Kauffman and Lambropoulou 2004):
   tangle ``1`` the strand from NW to SE passes over the strand from SW to NE;
   ``-1`` is its mirror.  With this choice the numerator closure of ``3`` is
   the right-handed trefoil (Jones ``t + t^3 - t^4``), the same chirality as
-  :func:`identify.notations.conway.parse_rational`.
+  :func:`knotsift.notations.conway.parse_rational`.
 * ``0`` joins NW-NE and SW-SE; ``infinity`` joins NW-SW and NE-SE.
 * ``a + b`` puts ``b`` to the right of ``a`` (NE of ``a`` to NW of ``b``,
   SE of ``a`` to SW of ``b``).
@@ -270,7 +270,7 @@ def integer_tangle(n: int) -> Tangle:
 
     Examples
     --------
-    >>> from identify.invariants.jones import jones_polynomial
+    >>> from knotsift.invariants.jones import jones_polynomial
     >>> str(jones_polynomial(integer_tangle(3).numerator()))
     't + t^3 - t^4'
     """

@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from identify import Diagram
+from knotsift import Diagram
 
 __all__ = ["TREFOIL", "FIGURE_EIGHT", "HOPF", "PRIME_KNOTS_TO_7", "reversed_diagram"]
 

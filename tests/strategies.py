@@ -6,13 +6,13 @@ import random
 
 from hypothesis import strategies as st
 
-from identify.diagram import Diagram
+from knotsift.diagram import Diagram
 
 
 def braid_closure(word: list[int], strands: int | None = None) -> Diagram:
     """Closure of an Artin braid word (sigma_i for i > 0 positive, -i its inverse).
 
-    Built independently of identify.notations so the tests of the invariants do
+    Built independently of knotsift.notations so the tests of the invariants do
     not depend on the notation parsers.
     """
     strands = strands or (max((abs(g) for g in word), default=0) + 1)

@@ -6,7 +6,7 @@ import sys
 
 import pytest
 
-from identify.cli import main
+from knotsift.cli import main
 
 
 def run(capsys, *argv):
@@ -116,7 +116,7 @@ def test_corrupt_table(capsys, tmp_path):
 
 def test_entry_point_process():
     """The installed entry point runs as a separate process."""
-    p = subprocess.run([sys.executable, "-m", "identify", "identify", "4 6 2"],
+    p = subprocess.run([sys.executable, "-m", "knotsift", "identify", "4 6 2"],
                        capture_output=True, text=True, timeout=60)
     assert p.returncode == 0
     assert "3_1" in p.stdout

@@ -4,9 +4,9 @@ import random
 
 import pytest
 
-from identify.diagram import Diagram
-from identify.errors import DiagramError
-from identify.reidemeister import shuffle_labels
+from knotsift.diagram import Diagram
+from knotsift.errors import DiagramError
+from knotsift.reidemeister import shuffle_labels
 
 RIGHT_TREFOIL = [(1, 5, 2, 4), (3, 1, 4, 6), (5, 3, 6, 2)]
 FIGURE_EIGHT = [(4, 2, 5, 1), (8, 6, 1, 5), (6, 3, 7, 4), (2, 7, 3, 8)]

@@ -5,10 +5,10 @@ import random
 
 import pytest
 
-from identify import identify
-from identify.diagram import Diagram
-from identify.reidemeister import scramble
-from identify.table import MIRROR_MARK, open_table
+from knotsift import identify
+from knotsift.diagram import Diagram
+from knotsift.reidemeister import scramble
+from knotsift.table import MIRROR_MARK, open_table
 
 TABLE = open_table()
 PRIMES = [k["name"] for k in TABLE.knots() if k["kind"] == "prime"]
@@ -97,13 +97,13 @@ def test_uncertain_crossings_give_a_distribution():
 
 def test_too_many_uncertain_crossings():
     """More than 12 uncertain crossings is refused with a clear error."""
-    from identify.errors import DiagramError
+    from knotsift.errors import DiagramError
 
     t = Diagram([(1, 5, 2, 4), (3, 1, 4, 6), (5, 3, 6, 2)])
     big = t
     for _ in range(4):
         big = big.connected_sum(t)
-    from identify.notations.pd import write_pd
+    from knotsift.notations.pd import write_pd
 
     text = write_pd(big, uncertain=range(13))
     with pytest.raises(DiagramError, match="at most 12"):

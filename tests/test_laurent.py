@@ -7,8 +7,8 @@ import sympy
 from hypothesis import given
 from hypothesis import strategies as st
 
-from identify.errors import PolynomialError
-from identify.laurent import Laurent
+from knotsift.errors import PolynomialError
+from knotsift.laurent import Laurent
 
 terms = st.dictionaries(
     st.integers(-12, 12).map(lambda k: Fraction(k, 2)), st.integers(-50, 50), max_size=8)

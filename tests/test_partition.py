@@ -2,7 +2,7 @@
 
 import random
 
-from identify.partition import Partition
+from knotsift.partition import Partition
 
 
 def test_partition_matches_connected_components():

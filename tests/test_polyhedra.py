@@ -1,14 +1,14 @@
-"""Tests of identify.polyhedra: Conway's basic polyhedra and tangle substitution."""
+"""Tests of knotsift.polyhedra: Conway's basic polyhedra and tangle substitution."""
 
 import csv
 from pathlib import Path
 
 import pytest
 
-from identify.invariants.jones import jones_polynomial
-from identify.laurent import Laurent
-from identify.polyhedra import BASIC_POLYHEDRA, Polyhedron, basic_polyhedron
-from identify.tangle import integer_tangle, rational_tangle
+from knotsift.invariants.jones import jones_polynomial
+from knotsift.laurent import Laurent
+from knotsift.polyhedra import BASIC_POLYHEDRA, Polyhedron, basic_polyhedron
+from knotsift.tangle import integer_tangle, rational_tangle
 from tests.strategies import braid_closure
 
 REFERENCE = Path(__file__).resolve().parents[1] / "reference"
@@ -27,7 +27,7 @@ def determinant(d) -> int:
 
 
 def alexander_coefficients(d) -> str:
-    alexander = pytest.importorskip("identify.invariants.alexander")
+    alexander = pytest.importorskip("knotsift.invariants.alexander")
     return " ".join(str(c) for c in alexander.alexander_polynomial(d).coefficient_list())
 
 

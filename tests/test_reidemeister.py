@@ -4,10 +4,10 @@ import random
 
 import pytest
 
-from identify.diagram import Diagram
-from identify.errors import DiagramError
-from identify.invariants.jones import jones_polynomial
-from identify.reidemeister import add_bigon, add_kink, scramble
+from knotsift.diagram import Diagram
+from knotsift.errors import DiagramError
+from knotsift.invariants.jones import jones_polynomial
+from knotsift.reidemeister import add_bigon, add_kink, scramble
 
 FIGURE_EIGHT = Diagram([(4, 2, 5, 1), (8, 6, 1, 5), (6, 3, 7, 4), (2, 7, 3, 8)])
 
@@ -57,8 +57,8 @@ def test_bad_moves_rejected():
 def test_r3_keeps_invariants_and_changes_the_diagram():
     """Reidemeister III on every applicable triangle of random braid closures keeps the whole
     fingerprint (common practice: invariants are invariant) while changing the PD code."""
-    from identify.invariants.fingerprint import fingerprint
-    from identify.reidemeister import apply_r3, r3_triangles
+    from knotsift.invariants.fingerprint import fingerprint
+    from knotsift.reidemeister import apply_r3, r3_triangles
     from tests.strategies import braid_closure
 
     rng = random.Random(33)
@@ -77,7 +77,7 @@ def test_r3_keeps_invariants_and_changes_the_diagram():
 
 def test_r3_refuses_an_alternating_triangle():
     """The trefoil's triangles alternate (each strand over once): no R3 move applies there."""
-    from identify.reidemeister import apply_r3, r3_triangles
+    from knotsift.reidemeister import apply_r3, r3_triangles
 
     t = Diagram([(1, 5, 2, 4), (3, 1, 4, 6), (5, 3, 6, 2)])
     assert r3_triangles(t) == []

@@ -4,10 +4,10 @@ import random
 
 from hypothesis import given, settings
 
-from identify.diagram import Diagram
-from identify.invariants.jones import jones_polynomial
-from identify.reidemeister import add_bigon, add_kink, scramble
-from identify.simplify import remove_bigon, remove_nugatory, simplify
+from knotsift.diagram import Diagram
+from knotsift.invariants.jones import jones_polynomial
+from knotsift.reidemeister import add_bigon, add_kink, scramble
+from knotsift.simplify import remove_bigon, remove_nugatory, simplify
 from tests.strategies import braid_closure, braid_words
 
 TREFOIL = Diagram([(1, 5, 2, 4), (3, 1, 4, 6), (5, 3, 6, 2)])

@@ -1,4 +1,4 @@
-"""Tests of identify.tangle: Conway's tangle operations and rational tangles."""
+"""Tests of knotsift.tangle: Conway's tangle operations and rational tangles."""
 
 import itertools
 import random
@@ -6,10 +6,10 @@ from fractions import Fraction
 
 import pytest
 
-from identify.errors import DiagramError
-from identify.invariants.jones import jones_polynomial
-from identify.laurent import Laurent
-from identify.tangle import (
+from knotsift.errors import DiagramError
+from knotsift.invariants.jones import jones_polynomial
+from knotsift.laurent import Laurent
+from knotsift.tangle import (
     Tangle,
     continued_fraction,
     fraction_entries,

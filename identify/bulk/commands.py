@@ -1,4 +1,4 @@
-"""The ``knotsift classify`` and ``knotsift summarise`` subcommands (registered by identify.cli).
+"""The ``knotsift classify`` and ``knotsift summarise`` subcommands (registered by knotsift.cli).
 
 Exit codes of ``classify``: 0 every item classified; 1 some items failed
 (their rows hold the error); 2 usage error; 3 reference table missing;
@@ -16,7 +16,7 @@ __all__ = ["register", "EXIT_OUTPUT", "CLOSURE_CHOICES"]
 
 #: Exit code when the output cannot be opened or resumed.
 EXIT_OUTPUT = 4
-#: Closures of open chains: identify.curves.closure.CLOSURES (kept here so the CLI starts fast).
+#: Closures of open chains: knotsift.curves.closure.CLOSURES (kept here so the CLI starts fast).
 CLOSURE_CHOICES = ("direct", "far", "stochastic")
 _GROUP_TITLES = {"n_beads": "chain length N (beads)", "source": "file"}
 

@@ -70,7 +70,7 @@ def plot_spectrum(spec, path, *, top: int = 12, title: str | None = None,
     Parameters
     ----------
     spec : pandas.DataFrame
-        The output of :func:`identify.bulk.summary.knot_spectrum`; several
+        The output of :func:`knotsift.bulk.summary.knot_spectrum`; several
         groups give grouped bars.
     path : path
         ``.png``, ``.svg`` or ``.pdf``.
@@ -147,7 +147,7 @@ def plot_unknot_probability(fit: dict, path, *, title: str | None = None,
     Parameters
     ----------
     fit : dict
-        The output of :func:`identify.bulk.summary.unknot_fit`.
+        The output of :func:`knotsift.bulk.summary.unknot_fit`.
     path : path
         ``.png``, ``.svg`` or ``.pdf``.
     log_scale : bool

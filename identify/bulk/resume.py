@@ -1,7 +1,7 @@
 """Resuming an interrupted run: item keys, the done-set, and skipping what is done.
 
 A run writes its rows in chunks, each chunk committed whole or not at all
-(:mod:`identify.bulk.sinks`).  Every row carries the deterministic key of its
+(:mod:`knotsift.bulk.sinks`).  Every row carries the deterministic key of its
 item, ``source:frame:chain``.  Running the same command again reads the keys
 already in the output (the done-set) and classifies only the others, so after
 an interruption at any point, even ``kill -9``, the output ends with every item

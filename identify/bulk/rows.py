@@ -70,7 +70,7 @@ class ClassifyOptions:
         Trajectory chains are rings (True) or open chains (False); default per
         format (PDB open, the others rings).
     closure : str
-        How open chains are closed: direct, far or stochastic (identify.curves).
+        How open chains are closed: direct, far or stochastic (knotsift.curves).
     n_closures : int
         Random closures of a stochastic closure.
     seed : int
@@ -105,7 +105,7 @@ def _empty_row(item, chain: int = 0) -> dict:
 
 
 def row_from_result(row: dict, result) -> dict:
-    """Fill ``row`` from an :class:`~identify.result.IdentifyResult`."""
+    """Fill ``row`` from an :class:`~knotsift.result.IdentifyResult`."""
     row["status"] = result.status
     row["notation"] = row.get("notation") or result.notation or None
     if result.status == "error":
@@ -157,10 +157,10 @@ def _linking_by_chain(linking: list[dict]) -> dict[str, dict[str, int]]:
 
 
 def _classify_frame(item, options: ClassifyOptions, table) -> list[dict]:
-    """The rows of one trajectory frame, one per chain, through identify.curves.identify_frame.
+    """The rows of one trajectory frame, one per chain, through knotsift.curves.identify_frame.
 
     This is the seam between bulk classification and the 3D pipeline: the
-    only place that calls identify.curves' pipeline.
+    only place that calls knotsift.curves' pipeline.
     """
     from ..curves import identify_frame
 
@@ -202,7 +202,7 @@ def classify_item(item, options: ClassifyOptions | None = None, table=None) -> l
 
     Examples
     --------
-    >>> from identify.bulk.sources import Item
+    >>> from knotsift.bulk.sources import Item
     >>> (row,) = classify_item(Item("x:1:0", "x", 1, 0, "code", "DT: 4 6 8 2"))
     >>> row["knot"], row["chirality"], row["determinant"]
     ('4_1', 'amphichiral', 5)

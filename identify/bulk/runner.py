@@ -6,7 +6,7 @@ Workers are local processes by default (all cores), or the workers of a Dask
 distributed cluster (a scheduler address, or ``"local"`` for a
 ``LocalCluster`` on this machine).  Each returned chunk is written to the sink
 in one transaction, in the order the chunks finish; already written items are
-skipped (:mod:`identify.bulk.resume`).
+skipped (:mod:`knotsift.bulk.resume`).
 """
 
 from __future__ import annotations
@@ -178,10 +178,10 @@ def classify(inputs: Iterable[str | os.PathLike], out: str | os.PathLike, *,
     Parameters
     ----------
     inputs : paths
-        Code tables or lists, or trajectories (see :func:`identify.bulk.sources.iter_items`).
+        Code tables or lists, or trajectories (see :func:`knotsift.bulk.sources.iter_items`).
     out : path or URL
         ``*.csv``, ``*.parquet``, ``*.sqlite``/``*.db`` or a database URL
-        (see :func:`identify.bulk.sinks.open_sink`).
+        (see :func:`knotsift.bulk.sinks.open_sink`).
     fmt, codes_column, label_column
         How to read the inputs.
     options : ClassifyOptions

@@ -2,7 +2,7 @@
 
 Every sink writes a chunk of rows whole or not at all, so a crash (even
 ``kill -9``) never leaves half a chunk behind, and can say which item keys it
-already holds (the done-set read back by :mod:`identify.bulk.resume`).
+already holds (the done-set read back by :mod:`knotsift.bulk.resume`).
 
 ``results.sqlite`` (or ``.db``), or a database URL (``sqlite:///...``, ``postgresql://...``)
     A table ``classifications`` keyed by ``key``; each chunk is one
@@ -40,7 +40,7 @@ _PANDAS_DTYPES = {"int": "Int64", "float": "float64", "text": "object"}
 
 
 def rows_to_frame(rows: list[dict]):
-    """A DataFrame of rows with the columns of :data:`identify.bulk.rows.COLUMNS`, typed."""
+    """A DataFrame of rows with the columns of :data:`knotsift.bulk.rows.COLUMNS`, typed."""
     import pandas as pd
 
     df = pd.DataFrame.from_records(rows, columns=list(COLUMN_NAMES))

@@ -1,7 +1,7 @@
 """The items to classify: rows of a table of diagram codes, frames of trajectories.
 
 Every output row has a deterministic key built from its source file, its
-frame and its chain (:func:`identify.bulk.resume.item_key`), so a second run
+frame and its chain (:func:`knotsift.bulk.resume.item_key`), so a second run
 over the same input can tell which rows are already done.  A code is one
 item and one row; a trajectory frame is one item (its chains are classified
 together, since linking numbers and contacts between chains need them all)
@@ -15,7 +15,7 @@ carried into the row's ``fields``), or the line format of ``knotsift identify
 frame of a code item is its line number in the file.
 
 Trajectories (``xyz``, ``pdb``, ``csv``, ``npy``) are read by
-:mod:`identify.curves`; a frame the reader cannot read becomes an item
+:mod:`knotsift.curves`; a frame the reader cannot read becomes an item
 carrying the reader's error, and the run goes on.
 """
 
@@ -33,7 +33,7 @@ from .resume import item_key
 
 __all__ = ["Item", "FORMATS", "CURVE_FORMATS", "detect_format", "iter_items"]
 
-#: Trajectory formats, read by identify.curves.
+#: Trajectory formats, read by knotsift.curves.
 CURVE_FORMATS = ("xyz", "pdb", "csv", "npy")
 #: ``codes`` is a table or list of diagram codes; ``auto`` decides per file (see detect_format).
 FORMATS = ("auto", "codes") + CURVE_FORMATS
@@ -58,7 +58,7 @@ class Item:
     kind : str
         ``"code"`` or ``"frame"``.
     payload : str or list
-        The code text, or the frame's chains (``identify.curves.frame.Chain``).
+        The code text, or the frame's chains (``knotsift.curves.frame.Chain``).
     label : str
         A label given with the code (``label`` column or ``label<TAB>code``) or by the reader.
     fields : str
@@ -179,22 +179,22 @@ def _line_item(source: str, n: int, s: str) -> Item:
 
 
 def _curve_reader():
-    """The trajectory reader of identify.curves.
+    """The trajectory reader of knotsift.curves.
 
     This is the seam between bulk classification and the 3D pipeline on the
-    reading side: the only place that names identify.curves' reader.
+    reading side: the only place that names knotsift.curves' reader.
     """
     try:
         from ..curves import read_frames
     except ImportError as exc:
-        raise CurveError("reading 3D trajectories needs identify.curves.read_frames, which "
+        raise CurveError("reading 3D trajectories needs knotsift.curves.read_frames, which "
                          f"this installation lacks ({exc})") from None
     return read_frames
 
 
 def _curve_items(path: Path, source: str, fmt: str, closed: bool | None,
                  beads_per_chain: int | None) -> Iterator[Item]:
-    """One item per frame from identify.curves' streaming reader; bad frames as error items."""
+    """One item per frame from knotsift.curves' streaming reader; bad frames as error items."""
     read_frames = _curve_reader()
     extra = {"beads_per_chain": beads_per_chain} if beads_per_chain and fmt == "xyz" else {}
     frames = read_frames(path, format=fmt, closed=closed, errors="yield", **extra)
@@ -235,7 +235,7 @@ def iter_items(inputs: Iterable[str | os.PathLike], fmt: str = "auto", *,
         The column of a code table holding a label for each code, if present.
     closed : bool, optional
         Trajectory chains are rings (True) or open (False); default per format
-        (PDB open, the others rings; see identify.curves.formats).
+        (PDB open, the others rings; see knotsift.curves.formats).
     beads_per_chain : int, optional
         Split each XYZ frame into chains of this many beads.
 
@@ -248,11 +248,11 @@ def iter_items(inputs: Iterable[str | os.PathLike], fmt: str = "auto", *,
     NotationError
         Before anything is yielded, when an input is missing or the format is unknown.
     CurveError
-        Before anything is yielded, for a trajectory when identify.curves has no reader.
+        Before anything is yielded, for a trajectory when knotsift.curves has no reader.
 
     Examples
     --------
-    >>> from identify.demo import demo_path
+    >>> from knotsift.demo import demo_path
     >>> first = next(iter_items([demo_path()]))
     >>> first.label, first.payload
     ('R7-01', 'DT: 4 6 2')

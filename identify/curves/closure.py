@@ -193,7 +193,7 @@ def closure_spectrum(x: np.ndarray, method: str = "stochastic",
     ----------
     x : (N, 3) array
         The open chain, prepared (median bond 1, see
-        :func:`identify.curves.frame.prepare_chains`) and free of self-contact.
+        :func:`knotsift.curves.frame.prepare_chains`) and free of self-contact.
     method : {"direct", "far", "stochastic"}
     n_closures : int
         Number of random directions (stochastic only).

@@ -1,6 +1,6 @@
 """The ``knotsift curve`` command (and 3D files given to ``knotsift identify``).
 
-Thin: the options become one call of :func:`identify.curves.report.report_file`.
+Thin: the options become one call of :func:`knotsift.curves.report.report_file`.
 """
 
 from __future__ import annotations

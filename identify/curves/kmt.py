@@ -95,7 +95,7 @@ def kmt_reduce(chains: list[tuple[np.ndarray, bool]], tol: float = KMT_TOL,
     ----------
     chains : list of (vertices, closed)
         Vertices in units of the median bond length (see
-        :func:`identify.curves.frame.prepare_chains`).  Every chain is an
+        :func:`knotsift.curves.frame.prepare_chains`).  Every chain is an
         obstacle for the others, so links keep their type too.
     tol : float
         A segment within ``tol`` of a triangle blocks its deletion.

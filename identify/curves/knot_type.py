@@ -1,8 +1,8 @@
 """The knot type of closed polygons: reduce, project, simplify, fingerprint.
 
 This is the one place where coordinates become exact invariants: the
-reduced polygon is projected to a :class:`~identify.diagram.Diagram`, which
-is simplified and fingerprinted by the core (:mod:`identify.invariants`).
+reduced polygon is projected to a :class:`~knotsift.diagram.Diagram`, which
+is simplified and fingerprinted by the core (:mod:`knotsift.invariants`).
 Fingerprints are cached by the simplified diagram, since many closures of
 one chain give the same small diagram.
 """

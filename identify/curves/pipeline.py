@@ -2,8 +2,8 @@
 
 The path of the data: coordinates -> checked chain (units, repeats, NaN,
 self-contact) -> closed polygon (open chains: by the chosen closure) -> KMT
-reduction -> projection to a :class:`~identify.diagram.Diagram` ->
-:func:`identify.identification.identify_diagram` (simplification,
+reduction -> projection to a :class:`~knotsift.diagram.Diagram` ->
+:func:`knotsift.identification.identify_diagram` (simplification,
 fingerprint, table) -> :class:`CurveResult`.  Several chains in one frame
 give a :class:`FrameResult` with each chain's type and the linking numbers
 of the rings.
@@ -63,7 +63,7 @@ class CurveResult(IdentifyResult):
         For open chains: ``{type, fingerprint, count, fraction}`` per knot type
         met among the closures, most frequent first.
     core : dict or None
-        The knotted core (see :class:`identify.curves.localisation.KnottedCore`).
+        The knotted core (see :class:`knotsift.curves.localisation.KnottedCore`).
     geometry : dict
         ``beads_used`` (after dropping repeats), ``vertices_reduced`` (after
         KMT), ``crossings_projected``, ``crossings_simplified``, ``redraws``
@@ -348,7 +348,7 @@ def identify_curve(coords, closed: bool = True, closure: str = "stochastic",
     -----
     Rings are KMT-reduced and projected once; open chains are reduced once
     and every closure reuses the reduced chain when that is provably an
-    isotopy (see :func:`identify.curves.closure.closure_spectrum`).
+    isotopy (see :func:`knotsift.curves.closure.closure_spectrum`).
     """
     _check_args(closure, n_closures)
     from ..table import open_table
@@ -451,8 +451,8 @@ def identify_frames(frames: Iterable[Frame | FrameFailure], closure: str = "stoc
     Parameters
     ----------
     frames : iterable of Frame or FrameFailure
-        As yielded by :func:`identify.curves.formats.read_frames` with ``errors="yield"``.
-    progress : identify.progress.Progress, optional
+        As yielded by :func:`knotsift.curves.formats.read_frames` with ``errors="yield"``.
+    progress : knotsift.progress.Progress, optional
         Updated once per frame.
     """
     _check_args(closure, n_closures)
@@ -490,7 +490,7 @@ def identify_file(path: str | Path, format: str | None = None, closed: bool | No
     ----------
     path : path-like
     format, closed, frames, **options
-        As for :func:`identify.curves.formats.read_frames`.
+        As for :func:`knotsift.curves.formats.read_frames`.
     closure, n_closures, seed, localise, table, linking, progress
         As for :func:`identify_frames`.
 

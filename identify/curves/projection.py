@@ -202,7 +202,7 @@ def project(chains: list[tuple[np.ndarray, bool]], rng: np.random.Generator,
     >>> r = 2 + np.cos(3 * s)
     >>> trefoil = np.stack([r * np.cos(2 * s), r * np.sin(2 * s), -np.sin(3 * s)], axis=1)
     >>> p = project([(trefoil, True)], np.random.default_rng(0))
-    >>> from identify.invariants.jones import jones_polynomial
+    >>> from knotsift.invariants.jones import jones_polynomial
     >>> str(jones_polynomial(p.diagram))
     't + t^3 - t^4'
 
@@ -214,7 +214,7 @@ def project(chains: list[tuple[np.ndarray, bool]], rng: np.random.Generator,
     for _, closed in chains:
         if not closed:
             raise CurveError("only closed chains can be projected to a diagram; close open "
-                             "chains first (identify.curves.closure)", where=where or None)
+                             "chains first (knotsift.curves.closure)", where=where or None)
     segs = segment_set(chains)
     for attempt in range(max_redraws):
         u = random_direction(rng)

@@ -38,7 +38,7 @@ def report_file(path: str, *, format: str | None = None, closed: bool | None = N
     ----------
     path : str
     format, closed, frames, closure, n_closures, seed, localise, table
-        As for :func:`identify.curves.pipeline.identify_file`.
+        As for :func:`knotsift.curves.pipeline.identify_file`.
     as_json : bool
         Print one JSON object (``schema_version``, ``results``: one object
         per frame, ``summary``) instead of text.

@@ -14,4 +14,4 @@ __all__ = ["demo_path"]
 
 def demo_path() -> Path:
     """The demo batch file (one code per line, ``label<TAB>code``)."""
-    return Path(str(resources.files("identify.demo") / "plasmid_micrographs.tsv"))
+    return Path(str(resources.files("knotsift.demo") / "plasmid_micrographs.tsv"))

@@ -8,7 +8,7 @@ other, so the knot type changes along the run.  Every 60 moves a frame is
 written to a multi-frame XYZ file.  The data are invented for the demo and
 never used as a check.
 
-Regenerate the shipped file with ``python -m identify.demo.ring_polymer``;
+Regenerate the shipped file with ``python -m knotsift.demo.ring_polymer``;
 the run is seeded, so the file comes out the same every time.
 """
 
@@ -30,7 +30,7 @@ FILE_NAME = "phantom_ring_run.xyz"
 
 def demo_xyz_path() -> Path:
     """The shipped demo trajectory (multi-frame XYZ)."""
-    return Path(str(resources.files("identify.demo") / FILE_NAME))
+    return Path(str(resources.files("knotsift.demo") / FILE_NAME))
 
 
 def _start() -> np.ndarray:

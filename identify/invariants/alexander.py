@@ -251,7 +251,7 @@ def alexander_polynomial(diagram: Diagram, method: str | None = None) -> Laurent
     The determinant of the Alexander matrix without its last row and column
     is ``±t^m Delta(t)`` (common practice); it is found exactly without
     symbolic expansion (see
-    :func:`identify.invariants.elimination.linear_polynomial_determinant`),
+    :func:`knotsift.invariants.elimination.linear_polynomial_determinant`),
     in roughly ``O(P n (n + f))`` vector operations for ``n`` crossings,
     ``P ~ n / 24`` primes and ``f`` fill-in entries.  The result is checked
     against Delta(1) = 1 and Delta(t) = Delta(1/t).

@@ -41,7 +41,7 @@ def determinant(diagram: Diagram) -> int:
     The absolute value of the determinant of a reduced Goeritz matrix of a
     connected diagram (common practice); a diagram in several pieces, or with
     free loops beside crossings, is split and has determinant 0.  Exact, by
-    :func:`identify.invariants.elimination.integer_determinant`.
+    :func:`knotsift.invariants.elimination.integer_determinant`.
 
     References
     ----------

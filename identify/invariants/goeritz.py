@@ -86,7 +86,7 @@ def checkerboard_colouring(diagram: Diagram) -> tuple[list[list[Corner]], list[i
     Returns
     -------
     faces : list of list of (crossing, corner)
-        As :meth:`identify.diagram.Diagram.faces`.
+        As :meth:`knotsift.diagram.Diagram.faces`.
     colours : list of int
         ``colours[f]`` is the colour of ``faces[f]``.
     """

@@ -52,7 +52,7 @@ def jones_polynomial(diagram: Diagram) -> Laurent:
     Notes
     -----
     Computed from the Kauffman bracket by tangle contraction
-    (:func:`identify.invariants.bracket.kauffman_bracket`).
+    (:func:`knotsift.invariants.bracket.kauffman_bracket`).
 
     References
     ----------

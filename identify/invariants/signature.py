@@ -172,7 +172,7 @@ def knot_signature(diagram: Diagram) -> int:
     -----
     Gordon-Litherland: sigma = sign(G) - mu for the Goeritz matrix G of a
     checkerboard surface and its correction term mu (the local rules are
-    stated in :mod:`identify.invariants.goeritz`); each connected piece of
+    stated in :mod:`knotsift.invariants.goeritz`); each connected piece of
     the diagram is done separately and the results added (the signature is
     additive under split union), free loops contribute 0.  Linear time to
     build G, then :func:`inertia`.

@@ -226,7 +226,7 @@ def parse_braid(word: str | Sequence[int], strands: int | None = None) -> Diagra
 
     Examples
     --------
-    >>> from identify.invariants.jones import jones_polynomial
+    >>> from knotsift.invariants.jones import jones_polynomial
     >>> str(jones_polynomial(parse_braid("s1^3")))
     't + t^3 - t^4'
     >>> parse_braid([1, -2, 1, -2]).writhe()

@@ -235,7 +235,7 @@ def parse_rational(code: str | Sequence[int]) -> Diagram:
 
     Examples
     --------
-    >>> from identify.invariants.jones import jones_polynomial
+    >>> from knotsift.invariants.jones import jones_polynomial
     >>> str(jones_polynomial(parse_rational("3")))
     't + t^3 - t^4'
     >>> str(jones_polynomial(parse_rational("2 2")))

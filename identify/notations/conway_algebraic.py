@@ -20,7 +20,7 @@ Grammar
     run         := ENTRY (whitespace ENTRY)*
     ENTRY       := ["-"] DIGIT+
 
-Meaning (tangle operations of :mod:`identify.tangle`):
+Meaning (tangle operations of :mod:`knotsift.tangle`):
 
 * A run of one unspaced token is read digit by digit: ``2112`` is the
   rational tangle ``2 1 1 2`` (the tables never need an entry above 9).  With
@@ -42,7 +42,7 @@ Meaning (tangle operations of :mod:`identify.tangle`):
 * An algebraic notation (one slot) is the numerator closure of its tangle:
   the knot ``3`` is the numerator closure of the tangle 3.
 * A vertex list with a separator and no polyhedron is on ``6*``.  Slot ``k``
-  goes to vertex ``k`` of the polyhedron (:mod:`identify.polyhedra`), an
+  goes to vertex ``k`` of the polyhedron (:mod:`knotsift.polyhedra`), an
   empty slot and every vertex after the last slot hold the tangle 1; more
   slots than vertices is an error.
 * The colon: on ``6*`` it stands for ``0.`` (``a:b`` is ``a0.b``, so
@@ -52,7 +52,7 @@ Meaning (tangle operations of :mod:`identify.tangle`):
 Validation
 ----------
 The reading of the colon, the vertex order and the way each tangle is turned
-at each vertex (see :mod:`identify.polyhedra`) could not be looked up; they
+at each vertex (see :mod:`knotsift.polyhedra`) could not be looked up; they
 were chosen by building every polyhedral row of ``reference/prime_knots.csv``
 and comparing determinants with ``reference/alexander.csv`` (all recalled
 from memory), keeping the choice that agrees with the most rows:
@@ -449,7 +449,7 @@ def parse_conway_notation(text: str) -> Diagram:
 
     Examples
     --------
-    >>> from identify.invariants.jones import jones_polynomial
+    >>> from knotsift.invariants.jones import jones_polynomial
     >>> str(jones_polynomial(parse_conway_notation("3")))
     't + t^3 - t^4'
     >>> parse_conway_notation("8*").number_of_crossings()

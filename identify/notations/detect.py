@@ -228,7 +228,7 @@ def parse_any(text: str, notation: str | None = None) -> Diagram:
 
     Examples
     --------
-    >>> from identify.invariants.jones import jones_polynomial
+    >>> from knotsift.invariants.jones import jones_polynomial
     >>> str(jones_polynomial(parse_any("DT: 4 6 8 2")))
     't^-2 - t^-1 + 1 - t + t^2'
     >>> parse_any("s1^3", notation="braid").writhe()

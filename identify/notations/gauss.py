@@ -18,7 +18,7 @@ With crossing signs the code fixes the diagram: together with which strand is
 over, the sign fixes the counter-clockwise order of the four edges at each
 crossing, hence the whole planar drawing.  Without signs the drawing of the
 shadow is found by a planarity test and its mirror image is fixed by the rule
-of :func:`parse_gauss` (shared with :mod:`identify.notations.dt`).
+of :func:`parse_gauss` (shared with :mod:`knotsift.notations.dt`).
 
 Crossing ``k`` of the resulting diagram is the crossing with the ``k``-th
 smallest number in the code.

@@ -7,9 +7,9 @@ import json
 import random
 from pathlib import Path
 
-from identify import Diagram
-from identify.reidemeister import scramble
-from identify.table import open_table
+from knotsift import Diagram
+from knotsift.reidemeister import scramble
+from knotsift.table import open_table
 
 __all__ = ["write_scrambled", "write_mixed", "MIXED", "comparable", "BAD_CODES",
            "agrees_with_expected"]
@@ -67,7 +67,7 @@ def comparable(df) -> list[dict]:
     """Rows sorted by key, timing columns dropped, missing values as None, numbers as int."""
     import numpy as np
 
-    from identify.bulk.rows import TIMING_COLUMNS
+    from knotsift.bulk.rows import TIMING_COLUMNS
 
     df = df.drop(columns=list(TIMING_COLUMNS)).sort_values("key").reset_index(drop=True)
     df = df.astype(object).where(df.notna(), None)

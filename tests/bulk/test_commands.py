@@ -6,9 +6,9 @@ import json
 
 import pytest
 
-from identify.bulk.commands import CLOSURE_CHOICES, EXIT_OUTPUT
-from identify.cli import main
-from identify.demo import demo_path
+from knotsift.bulk.commands import CLOSURE_CHOICES, EXIT_OUTPUT
+from knotsift.cli import main
+from knotsift.demo import demo_path
 
 from .inputs import write_mixed
 
@@ -79,8 +79,8 @@ def test_summarise_command_json_and_plot(tmp_path, capsys):
 
 
 def test_closure_choices_match_identify_curves():
-    """The CLI's closure names are those of identify.curves."""
-    closure = pytest.importorskip("identify.curves.closure")
+    """The CLI's closure names are those of knotsift.curves."""
+    closure = pytest.importorskip("knotsift.curves.closure")
     assert CLOSURE_CHOICES == closure.CLOSURES
 
 

@@ -5,9 +5,9 @@ from __future__ import annotations
 import pandas as pd
 import pytest
 
-from identify.bulk.plots import knot_label_tex, plot_spectrum, plot_unknot_probability
-from identify.bulk.summary import knot_spectrum, unknot_fit
-from identify.errors import KnotsiftError
+from knotsift.bulk.plots import knot_label_tex, plot_spectrum, plot_unknot_probability
+from knotsift.bulk.summary import knot_spectrum, unknot_fit
+from knotsift.errors import KnotsiftError
 
 pytest.importorskip("matplotlib")
 

@@ -15,9 +15,9 @@ import uuid
 
 import pytest
 
-from identify.bulk.runner import classify
-from identify.bulk.sinks import SQLSink
-from identify.bulk.summary import read_results
+from knotsift.bulk.runner import classify
+from knotsift.bulk.sinks import SQLSink
+from knotsift.bulk.summary import read_results
 
 from .inputs import comparable
 
@@ -61,9 +61,9 @@ def test_postgres_write_then_resume_equals_sqlite(scrambled, tmp_path, table_nam
 _CRASH = textwrap.dedent("""
     import os, signal, sys
     import sqlalchemy
-    from identify.bulk.rows import ClassifyOptions, classify_chunk
-    from identify.bulk.sinks import SQLSink
-    from identify.bulk.sources import iter_items
+    from knotsift.bulk.rows import ClassifyOptions, classify_chunk
+    from knotsift.bulk.sinks import SQLSink
+    from knotsift.bulk.sources import iter_items
 
     url, table, src = sys.argv[1:]
     rows = classify_chunk(list(iter_items([src])), ClassifyOptions())

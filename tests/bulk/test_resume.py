@@ -13,9 +13,9 @@ from pathlib import Path
 
 import pytest
 
-from identify.bulk.resume import item_key, pending, split_key
-from identify.bulk.sources import iter_items
-from identify.bulk.summary import read_results
+from knotsift.bulk.resume import item_key, pending, split_key
+from knotsift.bulk.sources import iter_items
+from knotsift.bulk.summary import read_results
 
 from .inputs import agrees_with_expected, write_scrambled
 
@@ -47,7 +47,7 @@ def test_classify_kill9_then_rerun_has_every_row_once(tmp_path, name):
     src = tmp_path / "batch.csv"
     inputs = write_scrambled(src, copies=5, moves=16, seed=7, limit=300)
     out = tmp_path / name
-    cmd = [sys.executable, "-m", "identify", "classify", str(src), "--out", str(out),
+    cmd = [sys.executable, "-m", "knotsift", "classify", str(src), "--out", str(out),
            "--workers", "2", "--chunk", "10", "--quiet"]
     env = dict(os.environ, PYTHONPATH=str(REPO) + os.pathsep + os.environ.get("PYTHONPATH", ""))
     proc = subprocess.Popen(cmd, cwd=tmp_path, env=env, start_new_session=True,

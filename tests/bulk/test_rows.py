@@ -6,10 +6,10 @@ import json
 
 import pytest
 
-from identify.bulk.rows import COLUMN_NAMES, ClassifyOptions, classify_item
-from identify.bulk.sources import Item, iter_items
-from identify.identification import identify
-from identify.result import IdentifyResult
+from knotsift.bulk.rows import COLUMN_NAMES, ClassifyOptions, classify_item
+from knotsift.bulk.sources import Item, iter_items
+from knotsift.identification import identify
+from knotsift.result import IdentifyResult
 
 from .inputs import BAD_CODES
 
@@ -93,7 +93,7 @@ def test_classify_item_given_notation_is_used():
 
 def test_classify_item_internal_error_is_marked(monkeypatch):
     """An unexpected exception in one item is recorded as an internal error, not raised."""
-    import identify.identification as ident
+    import knotsift.identification as ident
 
     def broken(*a, **k) -> IdentifyResult:
         raise ZeroDivisionError("boom")

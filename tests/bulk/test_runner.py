@@ -4,9 +4,9 @@ from __future__ import annotations
 
 import pytest
 
-from identify.bulk.rows import ClassifyOptions
-from identify.bulk.runner import chunked, classify
-from identify.bulk.summary import read_results
+from knotsift.bulk.rows import ClassifyOptions
+from knotsift.bulk.runner import chunked, classify
+from knotsift.bulk.summary import read_results
 
 from .inputs import agrees_with_expected, comparable
 
@@ -86,7 +86,7 @@ def test_classify_resume_skips_done_items(scrambled, tmp_path, serial_rows):
 
 def test_classify_options_mismatch_is_refused(tmp_path):
     """Resuming with another notation is refused before any work."""
-    from identify.bulk.resume import ResumeError
+    from knotsift.bulk.resume import ResumeError
 
     src = tmp_path / "c.txt"
     src.write_text("4 6 2\n")
@@ -115,7 +115,7 @@ def test_classify_progress_line_on_request(tmp_path, capsys):
 def test_classify_streams_one_chunk_at_a_time(tmp_path, monkeypatch):
     """Items are read lazily: when chunk k is classified, only k + 1 chunks have been read,
     however long the input (memory stays flat)."""
-    import identify.bulk.runner as runner
+    import knotsift.bulk.runner as runner
 
     src = tmp_path / "long.txt"
     src.write_text("braid: s1\n" * 300)

@@ -9,10 +9,10 @@ import textwrap
 
 import pytest
 
-from identify.bulk.resume import ResumeError
-from identify.bulk.rows import ClassifyOptions, classify_item
-from identify.bulk.sinks import open_sink
-from identify.bulk.sources import iter_items
+from knotsift.bulk.resume import ResumeError
+from knotsift.bulk.rows import ClassifyOptions, classify_item
+from knotsift.bulk.sinks import open_sink
+from knotsift.bulk.sources import iter_items
 
 from .inputs import comparable, write_mixed
 
@@ -63,9 +63,9 @@ def test_open_sink_rejects_unknown_form(tmp_path):
 
 _CRASH = textwrap.dedent("""
     import json, os, signal, sys
-    from identify.bulk.rows import ClassifyOptions, classify_item
-    from identify.bulk.sinks import open_sink
-    from identify.bulk.sources import iter_items
+    from knotsift.bulk.rows import ClassifyOptions, classify_item
+    from knotsift.bulk.sinks import open_sink
+    from knotsift.bulk.sources import iter_items
 
     out, src = sys.argv[1], sys.argv[2]
     rows = [r for i in iter_items([src]) for r in classify_item(i)]

@@ -6,10 +6,10 @@ import json
 
 import pytest
 
-from identify.bulk.resume import split_key
-from identify.bulk.sources import detect_format, iter_items
-from identify.demo import demo_path
-from identify.errors import NotationError
+from knotsift.bulk.resume import split_key
+from knotsift.bulk.sources import detect_format, iter_items
+from knotsift.demo import demo_path
+from knotsift.errors import NotationError
 
 from .inputs import MIXED, write_mixed
 

@@ -7,15 +7,15 @@ import math
 import pandas as pd
 import pytest
 
-from identify.bulk.runner import classify
-from identify.bulk.summary import (
+from knotsift.bulk.runner import classify
+from knotsift.bulk.summary import (
     knot_spectrum,
     read_results,
     unknot_fit,
     unknot_points,
     wilson_interval,
 )
-from identify.errors import KnotsiftError
+from knotsift.errors import KnotsiftError
 
 from .inputs import write_mixed
 

@@ -1,4 +1,4 @@
-"""Trajectories through identify.curves: torus knots, open chains, linked rings, bad frames."""
+"""Trajectories through knotsift.curves: torus knots, open chains, linked rings, bad frames."""
 
 from __future__ import annotations
 
@@ -7,11 +7,11 @@ import json
 import numpy as np
 import pytest
 
-from identify.bulk.rows import ClassifyOptions
-from identify.bulk.runner import classify
-from identify.bulk.summary import knot_spectrum, read_results
-from identify.curves import identify_curve, identify_frame, read_frames
-from identify.curves.xyz import write_xyz
+from knotsift.bulk.rows import ClassifyOptions
+from knotsift.bulk.runner import classify
+from knotsift.bulk.summary import knot_spectrum, read_results
+from knotsift.curves import identify_curve, identify_frame, read_frames
+from knotsift.curves.xyz import write_xyz
 
 from .inputs import comparable
 
@@ -63,7 +63,7 @@ def ring_file(tmp_path_factory):
 
 
 def test_classify_rings_equals_identify_frame(ring_file, tmp_path):
-    """Each ring's row equals identify.curves' own answer frame by frame, names the torus
+    """Each ring's row equals knotsift.curves' own answer frame by frame, names the torus
     knot it was drawn as, and the corrupt and self-passing frames are error rows."""
     out = tmp_path / "r.sqlite"
     report = classify([ring_file], out, workers=1, chunk=3, progress=False)

@@ -4,20 +4,20 @@ from __future__ import annotations
 
 import pytest
 
-from identify.errors import TableError
+from knotsift.errors import TableError
 
 
 @pytest.fixture(scope="session")
 def table(tmp_path_factory):
     """The shipped table; while it is not there yet, one built from reference/ for this run."""
-    from identify.table import ReferenceTable, open_table
+    from knotsift.table import ReferenceTable, open_table
 
     try:
         return open_table()
     except TableError:
         pass
     try:
-        from data_build.build import build_table
+        from knotsift.data_build.build import build_table
 
         path = tmp_path_factory.mktemp("table") / "knots.sqlite"
         build_table(path, max_crossings=10, keep_going=True, show_progress=False)

@@ -5,16 +5,16 @@ from __future__ import annotations
 import numpy as np
 import pytest
 
-from identify.curves.closure import (
+from knotsift.curves.closure import (
     closure_spectrum,
     closure_towards,
     far_closure,
     is_majority,
     sphere_directions,
 )
-from identify.curves.frame import Chain, prepare_chains
-from identify.errors import CurveError
-from identify.invariants.fingerprint import fingerprint
+from knotsift.curves.frame import Chain, prepare_chains
+from knotsift.errors import CurveError
+from knotsift.invariants.fingerprint import fingerprint
 from tests.curves.curves import figure_eight, moved, right_torus_knot, with_tails
 from tests.strategies import braid_closure
 

@@ -7,8 +7,8 @@ import json
 import numpy as np
 import pytest
 
-from identify.cli import main
-from identify.curves.xyz import write_xyz
+from knotsift.cli import main
+from knotsift.curves.xyz import write_xyz
 from tests.curves.curves import figure_eight, right_torus_knot
 
 
@@ -79,7 +79,7 @@ def test_bad_option_values_are_usage_errors(table_path, capsys):
 
 def test_demo_file_is_deterministic(tmp_path):
     """The demo generator writes the shipped file byte for byte (seeded)."""
-    from identify.demo.ring_polymer import demo_xyz_path, generate
+    from knotsift.demo.ring_polymer import demo_xyz_path, generate
 
     fresh = generate(tmp_path / "again.xyz")
     assert fresh.read_bytes() == demo_xyz_path().read_bytes()

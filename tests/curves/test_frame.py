@@ -5,9 +5,9 @@ from __future__ import annotations
 import numpy as np
 import pytest
 
-from identify.curves.contact import check_no_contact
-from identify.curves.frame import Chain, prepare_chains
-from identify.errors import CurveError
+from knotsift.curves.contact import check_no_contact
+from knotsift.curves.frame import Chain, prepare_chains
+from knotsift.errors import CurveError
 from tests.curves.curves import right_torus_knot
 
 

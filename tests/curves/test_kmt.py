@@ -5,12 +5,12 @@ from __future__ import annotations
 import numpy as np
 import pytest
 
-from identify.curves.frame import Chain, prepare_chains
-from identify.curves.kmt import kmt_reduce, triangles_hit
-from identify.curves.projection import project
-from identify.invariants.alexander import alexander_polynomial
-from identify.invariants.fingerprint import fingerprint
-from identify.invariants.jones import jones_polynomial
+from knotsift.curves.frame import Chain, prepare_chains
+from knotsift.curves.kmt import kmt_reduce, triangles_hit
+from knotsift.curves.projection import project
+from knotsift.invariants.alexander import alexander_polynomial
+from knotsift.invariants.fingerprint import fingerprint
+from knotsift.invariants.jones import jones_polynomial
 from tests.curves.curves import (
     connected_sum,
     figure_eight,

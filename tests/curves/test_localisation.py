@@ -4,10 +4,10 @@ from __future__ import annotations
 
 import numpy as np
 
-from identify.curves.closure import closure_spectrum
-from identify.curves.frame import Chain, prepare_chains
-from identify.curves.localisation import knotted_core
-from identify.invariants.fingerprint import fingerprint
+from knotsift.curves.closure import closure_spectrum
+from knotsift.curves.frame import Chain, prepare_chains
+from knotsift.curves.localisation import knotted_core
+from knotsift.invariants.fingerprint import fingerprint
 from tests.curves.curves import connected_sum, moved, right_torus_knot, with_tails
 from tests.strategies import braid_closure
 

@@ -7,10 +7,10 @@ import json
 import numpy as np
 import pytest
 
-from identify.curves import Chain, Frame, FrameFailure, identify_curve, identify_frame
-from identify.curves.pipeline import identify_frames
-from identify.errors import CurveError
-from identify.invariants.fingerprint import fingerprint
+from knotsift.curves import Chain, Frame, FrameFailure, identify_curve, identify_frame
+from knotsift.curves.pipeline import identify_frames
+from knotsift.errors import CurveError
+from knotsift.invariants.fingerprint import fingerprint
 from tests.curves.conftest import has_name
 from tests.curves.curves import (
     connected_sum,
@@ -105,7 +105,7 @@ def test_open_chains_with_tails(table, make, name):
 
 def test_undetermined_when_no_majority(table):
     """With two closures of different types no type has a strict majority: undetermined."""
-    from identify.curves.closure import closure_spectrum
+    from knotsift.curves.closure import closure_spectrum
 
     rng = np.random.default_rng(8)
     chain, _ = with_tails(moved(right_torus_knot(2, 3, 100), rng, noise=0.01), 4, rng)
@@ -120,7 +120,7 @@ def test_undetermined_when_no_majority(table):
 
 
 def _units(x):
-    from identify.curves.frame import prepare_chains
+    from knotsift.curves.frame import prepare_chains
 
     return prepare_chains([Chain("A", x, False)]).chains[0].coords
 

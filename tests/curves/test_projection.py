@@ -5,11 +5,11 @@ from __future__ import annotations
 import numpy as np
 import pytest
 
-from identify.curves.frame import Chain, prepare_chains
-from identify.curves.projection import project
-from identify.invariants.fingerprint import fingerprint
-from identify.invariants.jones import jones_polynomial
-from identify.laurent import Laurent
+from knotsift.curves.frame import Chain, prepare_chains
+from knotsift.curves.projection import project
+from knotsift.invariants.fingerprint import fingerprint
+from knotsift.invariants.jones import jones_polynomial
+from knotsift.laurent import Laurent
 from tests.curves.curves import (
     figure_eight,
     hopf_link,
@@ -174,7 +174,7 @@ def test_separate_rings_free_loops():
 
 def test_projection_refuses_open_chains():
     """Only rings project to diagrams; open chains must be closed first."""
-    from identify.errors import CurveError
+    from knotsift.errors import CurveError
 
     with pytest.raises(CurveError, match="close open chains"):
         project([(units(figure_eight(50)), False)], np.random.default_rng(0))

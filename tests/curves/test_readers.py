@@ -7,13 +7,13 @@ import types
 import numpy as np
 import pytest
 
-from identify.curves.coords_table import read_coords_table, write_coords_table
-from identify.curves.formats import format_of, parse_frames, read_frames
-from identify.curves.frame import FrameFailure
-from identify.curves.npy import read_npy, write_npy
-from identify.curves.pdb import read_pdb, write_pdb
-from identify.curves.xyz import read_xyz, write_xyz
-from identify.errors import CurveError
+from knotsift.curves.coords_table import read_coords_table, write_coords_table
+from knotsift.curves.formats import format_of, parse_frames, read_frames
+from knotsift.curves.frame import FrameFailure
+from knotsift.curves.npy import read_npy, write_npy
+from knotsift.curves.pdb import read_pdb, write_pdb
+from knotsift.curves.xyz import read_xyz, write_xyz
+from knotsift.errors import CurveError
 from tests.curves.curves import figure_eight, right_torus_knot
 
 

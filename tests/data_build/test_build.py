@@ -4,11 +4,11 @@ import sqlite3
 
 import pytest
 
-from data_build.build import PRIME_COUNTS, build_table
-from data_build.sources import read_sources
-from identify.errors import TableError
-from identify.laurent import Laurent
-from identify.table import ReferenceTable, default_table_path, open_table
+from knotsift.data_build.build import PRIME_COUNTS, build_table
+from knotsift.data_build.sources import read_sources
+from knotsift.errors import TableError
+from knotsift.laurent import Laurent
+from knotsift.table import ReferenceTable, default_table_path, open_table
 
 TABLE = open_table()
 
@@ -139,7 +139,7 @@ def test_published_values_through_eight_crossings():
     recalled from Rolfsen 1976, Appendix C (reference/alexander.csv, from memory), and the Jones
     polynomials those recalled from Jones 1985 (reference/jones.csv, from memory) up to mirror
     image, wherever the recollection passes V(1) = 1, |V(-1)| = det and the KMT span."""
-    from data_build.build import recollection_is_consistent
+    from knotsift.data_build.build import recollection_is_consistent
 
     src, entries = _recalled_through(8)
     checked_jones = 0

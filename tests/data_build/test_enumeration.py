@@ -2,9 +2,9 @@
 
 from collections import Counter
 
-from data_build.build import PRIME_COUNTS
-from data_build.enumeration import _canonical_pairing, enumerate_classes
-from identify.table import open_table
+from knotsift.data_build.build import PRIME_COUNTS
+from knotsift.data_build.enumeration import _canonical_pairing, enumerate_classes
+from knotsift.table import open_table
 
 
 def test_enumerated_classes_through_seven_crossings():

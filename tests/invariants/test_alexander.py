@@ -1,4 +1,4 @@
-"""Tests of identify.invariants.alexander."""
+"""Tests of knotsift.invariants.alexander."""
 
 from __future__ import annotations
 
@@ -8,10 +8,10 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from identify import Diagram, InvariantError, Laurent
-from identify.invariants.alexander import alexander_matrix, alexander_polynomial
-from identify.invariants.determinant import determinant
-from identify.reidemeister import scramble, shuffle_labels
+from knotsift import Diagram, InvariantError, Laurent
+from knotsift.invariants.alexander import alexander_matrix, alexander_polynomial
+from knotsift.invariants.determinant import determinant
+from knotsift.reidemeister import scramble, shuffle_labels
 from tests.knots import FIGURE_EIGHT, HOPF, PRIME_KNOTS_TO_7, TREFOIL, reversed_diagram
 from tests.strategies import (
     braid_closure,

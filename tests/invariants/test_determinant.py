@@ -1,4 +1,4 @@
-"""Tests of identify.invariants.determinant."""
+"""Tests of knotsift.invariants.determinant."""
 
 from __future__ import annotations
 
@@ -8,12 +8,12 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from identify import Diagram, InvariantError
-from identify.invariants.determinant import determinant
-from identify.invariants.elimination import integer_determinant
-from identify.invariants.goeritz import goeritz_forms
-from identify.invariants.jones import jones_polynomial
-from identify.reidemeister import scramble, shuffle_labels
+from knotsift import Diagram, InvariantError
+from knotsift.invariants.determinant import determinant
+from knotsift.invariants.elimination import integer_determinant
+from knotsift.invariants.goeritz import goeritz_forms
+from knotsift.invariants.jones import jones_polynomial
+from knotsift.reidemeister import scramble, shuffle_labels
 from tests.knots import FIGURE_EIGHT, HOPF, PRIME_KNOTS_TO_7, TREFOIL
 from tests.strategies import (
     braid_closure,

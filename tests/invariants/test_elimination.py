@@ -1,4 +1,4 @@
-"""Tests of identify.invariants.elimination against sympy determinants (sympy oracle)."""
+"""Tests of knotsift.invariants.elimination against sympy determinants (sympy oracle)."""
 
 from __future__ import annotations
 
@@ -6,7 +6,7 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from identify.invariants.elimination import (
+from knotsift.invariants.elimination import (
     integer_determinant,
     linear_polynomial_determinant,
     primes_below_2_31,

@@ -1,11 +1,11 @@
-"""Tests of identify.invariants.goeritz: the colouring and the local rules."""
+"""Tests of knotsift.invariants.goeritz: the colouring and the local rules."""
 
 from __future__ import annotations
 
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from identify.invariants.goeritz import checkerboard_colouring, diagram_pieces, goeritz_forms
+from knotsift.invariants.goeritz import checkerboard_colouring, diagram_pieces, goeritz_forms
 from tests.knots import HOPF, TREFOIL
 from tests.strategies import braid_closure, link_diagrams, plat_diagrams
 

@@ -6,11 +6,11 @@ import random
 import pytest
 from hypothesis import given, settings
 
-from identify.diagram import Diagram
-from identify.invariants.jones import jones_polynomial
-from identify.invariants.state_sum import jones_by_states
-from identify.laurent import Laurent
-from identify.reidemeister import scramble, shuffle_labels
+from knotsift.diagram import Diagram
+from knotsift.invariants.jones import jones_polynomial
+from knotsift.invariants.state_sum import jones_by_states
+from knotsift.laurent import Laurent
+from knotsift.reidemeister import scramble, shuffle_labels
 from tests.strategies import braid_closure, braid_words, knot_braid_words
 
 RIGHT_TREFOIL = Diagram([(1, 5, 2, 4), (3, 1, 4, 6), (5, 3, 6, 2)])

@@ -1,4 +1,4 @@
-"""Tests of identify.invariants.signature (and the Goeritz forms behind it)."""
+"""Tests of knotsift.invariants.signature (and the Goeritz forms behind it)."""
 
 from __future__ import annotations
 
@@ -9,16 +9,16 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from identify import Diagram, InvariantError
-from identify.invariants.alexander import alexander_polynomial
-from identify.invariants.goeritz import goeritz_forms
-from identify.invariants.signature import (
+from knotsift import Diagram, InvariantError
+from knotsift.invariants.alexander import alexander_polynomial
+from knotsift.invariants.goeritz import goeritz_forms
+from knotsift.invariants.signature import (
     _inertia_certified,
     _inertia_exact,
     inertia,
     knot_signature,
 )
-from identify.reidemeister import scramble, shuffle_labels
+from knotsift.reidemeister import scramble, shuffle_labels
 from tests.knots import FIGURE_EIGHT, HOPF, PRIME_KNOTS_TO_7, TREFOIL, reversed_diagram
 from tests.strategies import (
     braid_closure,

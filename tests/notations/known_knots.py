@@ -4,7 +4,7 @@ Imported by the test modules of this folder (pytest puts a test folder
 without ``__init__.py`` on ``sys.path``).
 """
 
-from identify.laurent import Laurent
+from knotsift.laurent import Laurent
 
 NAMES = ["3_1", "4_1", "5_1", "5_2", "6_1", "6_2", "6_3",
          "7_1", "7_2", "7_3", "7_4", "7_5", "7_6", "7_7"]
@@ -89,7 +89,7 @@ UNLINK2 = Laurent.parse("-t^(-1/2) - t^(1/2)")  # common practice: the loop valu
 
 
 def jones(diagram) -> Laurent:
-    from identify.invariants.jones import jones_polynomial
+    from knotsift.invariants.jones import jones_polynomial
 
     return jones_polynomial(diagram)
 

@@ -1,4 +1,4 @@
-"""Tests of identify.notations.braid."""
+"""Tests of knotsift.notations.braid."""
 
 import pytest
 from hypothesis import given, settings
@@ -17,10 +17,10 @@ from known_knots import (
     same_up_to_mirror,
 )
 
-from identify.diagram import Diagram
-from identify.errors import NotationError
-from identify.notations.braid import braid_word, parse_braid, write_braid
-from identify.notations.dt import parse_dt
+from knotsift.diagram import Diagram
+from knotsift.errors import NotationError
+from knotsift.notations.braid import braid_word, parse_braid, write_braid
+from knotsift.notations.dt import parse_dt
 
 words = st.lists(st.sampled_from([1, 2, 3, -1, -2, -3]), min_size=0, max_size=8)
 

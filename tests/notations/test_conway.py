@@ -1,4 +1,4 @@
-"""Tests of identify.notations.conway."""
+"""Tests of knotsift.notations.conway."""
 
 import itertools
 from collections import defaultdict
@@ -18,10 +18,10 @@ from known_knots import (
     same_up_to_mirror,
 )
 
-from identify.diagram import Diagram
-from identify.errors import NotationError
-from identify.notations.conway import parse_rational, rational_entries, rational_fraction
-from identify.notations.dt import parse_dt
+from knotsift.diagram import Diagram
+from knotsift.errors import NotationError
+from knotsift.notations.conway import parse_rational, rational_entries, rational_fraction
+from knotsift.notations.dt import parse_dt
 
 
 @pytest.mark.parametrize("name", NAMES)

@@ -1,19 +1,19 @@
-"""Tests of identify.notations.conway_algebraic: Conway's notation read into diagrams."""
+"""Tests of knotsift.notations.conway_algebraic: Conway's notation read into diagrams."""
 
 import csv
 from pathlib import Path
 
 import pytest
 
-from identify.errors import NotationError
-from identify.invariants.jones import jones_polynomial
-from identify.laurent import Laurent
-from identify.notations.conway_algebraic import (
+from knotsift.errors import NotationError
+from knotsift.invariants.jones import jones_polynomial
+from knotsift.laurent import Laurent
+from knotsift.notations.conway_algebraic import (
     conway_tangle,
     conway_vertex_tangles,
     parse_conway_notation,
 )
-from identify.tangle import rational_tangle
+from knotsift.tangle import rational_tangle
 
 REFERENCE = Path(__file__).resolve().parents[2] / "reference"
 
@@ -101,7 +101,7 @@ def test_parse_conway_notation_table_alexander(name):
 
     Alexander polynomials: Rolfsen 1976, Appendix C (from memory).
     """
-    alexander = pytest.importorskip("identify.invariants.alexander")
+    alexander = pytest.importorskip("knotsift.invariants.alexander")
     d = parse_conway_notation(CONWAY[name])
     got = " ".join(str(c) for c in alexander.alexander_polynomial(d).coefficient_list())
     assert got == RECALLED[name]["alexander"]
@@ -156,11 +156,11 @@ def test_parse_conway_notation_trefoil_chirality():
 
 @pytest.mark.parametrize("name", [n for n in NAMES if CONWAY[n].isdigit()])
 def test_parse_conway_notation_agrees_with_four_plat(name):
-    """Rational rows agree, chirality included, with the 4-plat of identify.notations.conway.
+    """Rational rows agree, chirality included, with the 4-plat of knotsift.notations.conway.
 
     Two independent constructions of Conway's continued fraction (Conway 1970).
     """
-    conway = pytest.importorskip("identify.notations.conway")
+    conway = pytest.importorskip("knotsift.notations.conway")
     assert jones(parse_conway_notation(CONWAY[name])) == jones(conway.parse_rational(CONWAY[name]))
 
 

@@ -1,4 +1,4 @@
-"""Tests of identify.notations.detect and of agreement between the notations."""
+"""Tests of knotsift.notations.detect and of agreement between the notations."""
 
 import pytest
 from hypothesis import given, settings
@@ -13,10 +13,10 @@ from known_knots import (
     same_up_to_mirror,
 )
 
-import identify.notations as notations
-from identify.diagram import Diagram
-from identify.errors import DiagramError, NotationError
-from identify.notations import (
+import knotsift.notations as notations
+from knotsift.diagram import Diagram
+from knotsift.errors import DiagramError, NotationError
+from knotsift.notations import (
     NOTATIONS,
     detect_notation,
     parse_any,
@@ -107,7 +107,7 @@ def test_parse_any_braid_writer():
     ("[[1,5,2,4],[3,1,4,6],[5,3,6,2]]", "pd"),
 ])
 def test_parse_any_matches_direct_parser(text, notation):
-    from identify.notations.conway_algebraic import parse_conway_notation
+    from knotsift.notations.conway_algebraic import parse_conway_notation
     direct = {"pd": parse_pd, "dt": parse_dt, "gauss": parse_gauss, "braid": parse_braid,
               "conway": parse_conway_notation}[notation]
     assert parse_any(text) == direct(text)

@@ -1,4 +1,4 @@
-"""Tests of identify.notations.dt."""
+"""Tests of knotsift.notations.dt."""
 
 import itertools
 import random
@@ -18,9 +18,9 @@ from known_knots import (
     same_up_to_mirror,
 )
 
-from identify.diagram import Diagram
-from identify.errors import DiagramError, NotationError
-from identify.notations.dt import dt_entries, parse_dt, write_dt
+from knotsift.diagram import Diagram
+from knotsift.errors import DiagramError, NotationError
+from knotsift.notations.dt import dt_entries, parse_dt, write_dt
 
 
 @pytest.mark.parametrize("name", NAMES)
@@ -218,7 +218,7 @@ def test_parse_dt_malformed_positions():
 
 
 def test_write_dt_refuses_links():
-    from identify.notations.braid import parse_braid
+    from knotsift.notations.braid import parse_braid
 
     with pytest.raises(NotationError, match="2 components"):
         write_dt(parse_braid("s1^2"))

@@ -1,4 +1,4 @@
-"""Tests of identify.notations.gauss."""
+"""Tests of knotsift.notations.gauss."""
 
 import pytest
 from hypothesis import HealthCheck, assume, given, settings
@@ -13,12 +13,12 @@ from known_knots import (
     jones,
 )
 
-from identify.diagram import Diagram
-from identify.errors import NotationError
-from identify.notations.braid import parse_braid
-from identify.notations.conway import parse_rational
-from identify.notations.dt import parse_dt
-from identify.notations.gauss import parse_gauss, parse_gauss_with_uncertain, write_gauss
+from knotsift.diagram import Diagram
+from knotsift.errors import NotationError
+from knotsift.notations.braid import parse_braid
+from knotsift.notations.conway import parse_rational
+from knotsift.notations.dt import parse_dt
+from knotsift.notations.gauss import parse_gauss, parse_gauss_with_uncertain, write_gauss
 
 UNKNOT = jones(Diagram.unknot())
 TREFOIL = "O1+ U2+ O3+ U1+ O2+ U3+"

@@ -1,4 +1,4 @@
-"""Tests of identify.notations.pd."""
+"""Tests of knotsift.notations.pd."""
 
 import json
 import random
@@ -6,11 +6,11 @@ import random
 import pytest
 from known_knots import DT_CODES, NAMES, RIGHT_TREFOIL, jones
 
-from identify.diagram import Diagram
-from identify.errors import DiagramError, NotationError
-from identify.notations.braid import parse_braid
-from identify.notations.dt import parse_dt
-from identify.notations.pd import parse_pd, parse_pd_with_uncertain, write_pd
+from knotsift.diagram import Diagram
+from knotsift.errors import DiagramError, NotationError
+from knotsift.notations.braid import parse_braid
+from knotsift.notations.dt import parse_dt
+from knotsift.notations.pd import parse_pd, parse_pd_with_uncertain, write_pd
 
 # The right-handed trefoil (common practice: the PD code of CONVENTIONS.md's convention).
 TREFOIL = [(1, 5, 2, 4), (3, 1, 4, 6), (5, 3, 6, 2)]
