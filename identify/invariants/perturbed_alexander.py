@@ -44,8 +44,8 @@ __all__ = [
     "HASH_POINTS",
 ]
 
-#: (prime, point) pairs of the modular hash; the primes are the largest below 2^62.
-HASH_POINTS: tuple[tuple[int, int], ...] = ()  # filled below
+#: (prime, point) pairs of the modular hash; the primes are the largest below 2^31.
+HASH_POINTS: tuple[tuple[int, int], ...] = ()  # filled at the end of the module
 
 
 @dataclass(frozen=True)
@@ -227,12 +227,257 @@ def _check_knot(diagram: Diagram) -> None:
 
 
 # -- evaluation modulo a prime ------------------------------------------------
-def _value_at(lk: LongKnot, x: int, p: int) -> tuple[int, int] | None:
-    """``(det A(x), P(x))`` modulo ``p``, or None when ``A(x)`` is singular there.
+class _Plan:
+    """The lane-independent part of evaluating rho_1 at points modulo primes.
 
-    ``P(T) = 2 T^(2 n_-) det(A)^2 (sum R1 - sum phi_k (g_kk - 1/2))`` is a
-    polynomial of degree at most ``2n + 2`` (``n_-`` negative crossings), and
-    ``2 T^(phi + w + 2 n_-) rho_1 = P``.
+    With ``B`` the bidiagonal part of ``A`` (``A = B - P Q^T``, one rank-one
+    term per crossing), ``B^-1`` has monomial entries ``x^(E[b] - E[a])``
+    and the Woodbury identity reduces ``A^-1`` to the inverse of an ``n x n``
+    matrix.  Rows and columns of that matrix are ordered so that the sums of
+    its inverse over the quadrants that make up ``g[a, b]`` are themselves
+    the entries of the inverse of a sparse matrix ``M`` (differences of rows
+    and columns), so one inverse modulo ``p`` gives every ``g`` needed.
+    """
+
+    def __init__(self, lk: LongKnot):
+        n = len(lk.crossings)
+        size = lk.size
+        self.n = n
+        signs = [s for s, _, _ in lk.crossings]
+        over = [i - 1 for _, i, _ in lk.crossings]   # I_c: row of the over-edge
+        under_out = [j for _, _, j in lk.crossings]  # J_c: index of edge j + 1
+        step = [0] * size
+        for s, row in zip(signs, over):
+            step[row] = s
+        expo = [0] * size
+        for a in range(1, size):
+            expo[a] = expo[a - 1] + step[a - 1]
+        order_r = sorted(range(n), key=lambda c: -over[c])
+        order_c = sorted(range(n), key=lambda c: under_out[c])
+        pos_r = {c: v for v, c in enumerate(order_r)}
+        pos_c = {c: u for u, c in enumerate(order_c)}
+        # h(u): how many crossings d have I_d >= J of the crossing in row u
+        over_sorted = sorted(over, reverse=True)
+        h = []
+        for u in range(n):
+            jv = under_out[order_c[u]]
+            h.append(sum(1 for iv in over_sorted if iv >= jv))
+        fixed: dict[tuple[int, int], int] = {}
+        for u in range(n):
+            if h[u]:
+                fixed[(u, h[u] - 1)] = fixed.get((u, h[u] - 1), 0) - 1
+            if u + 1 < n and h[u + 1]:
+                fixed[(u, h[u + 1] - 1)] = fixed.get((u, h[u + 1] - 1), 0) + 1
+        self.fixed = [(u * n + v, c) for (u, v), c in fixed.items() if c]
+        # each diagonal term Delta_c lands on four cells with signs
+        self.diagonal = []
+        for c in range(n):
+            u, v = pos_c[c], pos_r[c]
+            cells = [(u, v, 1)]
+            if v:
+                cells.append((u, v - 1, -1))
+            if u:
+                cells.append((u - 1, v, -1))
+            if u and v:
+                cells.append((u - 1, v - 1, 1))
+            self.diagonal.append([(a * n + b, s) for a, b, s in cells])
+        self.sign = _permutation_parity(order_c) * _permutation_parity(order_r)
+        self.signs = signs
+        self.dexp = [expo[under_out[c]] - expo[over[c]] for c in range(n)]
+        count_over = [sum(1 for iv in over if iv >= a) for a in range(size + 1)]
+        count_under = [sum(1 for jv in under_out if jv <= b) for b in range(size)]
+
+        def cell(a: int, b: int) -> tuple[int, int, int, int]:
+            return (count_over[a], count_under[b], 1 if a <= b else 0, expo[b] - expo[a])
+
+        self.terms = []
+        for s, i, j in lk.crossings:
+            i0, j0 = i - 1, j - 1
+            self.terms.append((s, cell(j0, i0), cell(j0 + 1, j0), cell(j0, j0 + 1),
+                               cell(i0, j0), cell(i0, i0)))
+        self.edges = [(phik, cell(k, k)) for k, phik in enumerate(lk.rotation) if phik]
+        self.low = min(expo) - max(expo)
+        self.high = max(expo) - min(expo)
+        self.spread = max(-self.low, self.high, max((abs(d) for d in self.dexp), default=0))
+        self.shift = sum(lk.rotation) + sum(signs)
+
+    def evaluate(self, x: int, p: int) -> tuple[int, int] | None:
+        """``(det A(x), rho_1(x))`` modulo ``p``, or None where ``A(x)`` is singular."""
+        from flint import nmod_mat
+
+        n = self.n
+        xinv = pow(x, -1, p)
+        powers = {0: 1}
+        for k in range(1, self.spread + 1):
+            powers[k] = powers[k - 1] * x % p
+            powers[-k] = powers[-k + 1] * xinv % p
+        flat = [0] * (n * n)
+        for index, c in self.fixed:
+            flat[index] = c % p
+        scale = 1
+        for c in range(n):
+            xs = x if self.signs[c] > 0 else xinv
+            one_minus = (1 - xs) % p
+            if one_minus == 0:
+                return None
+            delta = powers[self.dexp[c]] * pow(one_minus, -1, p) % p
+            scale = scale * powers[-self.dexp[c]] % p * one_minus % p
+            for index, s in self.diagonal[c]:
+                flat[index] = (flat[index] + s * delta) % p
+        m = nmod_mat(n, n, flat, p)
+        det_m = int(m.det())
+        if det_m == 0:
+            return None
+        det = det_m * scale % p
+        if self.sign < 0:
+            det = (-det) % p
+        q = m.inv()
+
+        def g(cell: tuple[int, int, int, int]) -> int:
+            t, u, below, e = cell
+            inner = below + (int(q[t - 1, u - 1]) if t and u else 0)
+            return powers[e] * inner % p
+
+        half = (p + 1) // 2
+        total = 0
+        for s, ji, j1j, jj1, ij, ii in self.terms:
+            gjj1 = g(jj1)
+            gii = g(ii)
+            r = g(ji) * (g(j1j) + gjj1 - g(ij)) - gii * (gjj1 - 1) - half
+            total += r if s > 0 else -r
+        for phik, kk in self.edges:
+            total -= phik * (g(kk) - half)
+        # rho_1(x) = x^(-phi - w) det^2 total
+        shift = -self.shift
+        factor = pow(x, shift, p) if shift >= 0 else pow(xinv, -shift, p)
+        return det, factor * det % p * det % p * (total % p) % p
+
+
+    def evaluate_batch(self, xs, qs):
+        """``(det A, rho_1, ok)`` in many lanes at once (numpy; primes below 2^31).
+
+        ``xs`` and ``qs`` are int64 arrays of points and primes; ``ok`` is False
+        in lanes where the matrix is singular.  Gauss-Jordan elimination of
+        all lanes together, with a pivot of its own in each lane.
+        """
+        import numpy as np
+
+        n = self.n
+        k_lanes = len(xs)
+        q1 = qs[:, None]
+        xinv = _inverse_mod(xs, qs)
+        spread = self.spread + 1
+        pw = np.ones((k_lanes, 2 * spread + 1), dtype=np.int64)
+        for k in range(1, spread + 1):
+            pw[:, spread + k] = pw[:, spread + k - 1] * xs % qs
+            pw[:, spread - k] = pw[:, spread - k + 1] * xinv % qs
+        signs = np.array(self.signs, dtype=np.int64)
+        xs_c = np.where(signs[None, :] > 0, xs[:, None], xinv[:, None])
+        one_minus = (1 - xs_c) % q1
+        ok = (one_minus != 0).all(axis=1)
+        dexp = np.array(self.dexp, dtype=np.int64)
+        delta = pw[:, spread + dexp] * _inverse_mod(one_minus, q1) % q1
+        scale = np.ones(k_lanes, dtype=np.int64)
+        factor = pw[:, spread - dexp] * one_minus % q1
+        for c in range(n):
+            scale = scale * factor[:, c] % qs
+        flat = np.zeros((k_lanes, n * n), dtype=np.int64)
+        for index, c in self.fixed:
+            flat[:, index] += c
+        for c, cells in enumerate(self.diagonal):
+            for index, s in cells:
+                flat[:, index] += s * delta[:, c]
+        aug = np.zeros((k_lanes, n, 2 * n), dtype=np.int64)
+        aug[:, :, :n] = flat.reshape(k_lanes, n, n) % qs[:, None, None]
+        aug[:, np.arange(n), n + np.arange(n)] = 1
+        det = np.ones(k_lanes, dtype=np.int64)
+        lanes = np.arange(k_lanes)
+        q3 = qs[:, None, None]
+        for k in range(n):
+            nz = aug[:, k:, k] != 0
+            ok &= nz.any(axis=1)
+            piv = nz.argmax(axis=1) + k
+            swap = piv != k
+            if swap.any():
+                rows_k = aug[lanes, k].copy()
+                aug[lanes, k] = aug[lanes, piv]
+                aug[lanes, piv] = rows_k
+                det = np.where(swap, (qs - det) % qs, det)
+            pv = aug[:, k, k]
+            det = det * pv % qs
+            inv = _inverse_mod(pv, qs)
+            aug[:, k, :] = aug[:, k, :] * inv[:, None] % q1
+            f = aug[:, :, k].copy()
+            f[:, k] = 0
+            aug = (aug - f[:, :, None] * aug[:, k, None, :]) % q3
+        det = det * scale % qs
+        if self.sign < 0:
+            det = (qs - det) % qs
+        inverse = aug[:, :, n:]
+        cells = self._cell_arrays()
+        t, u, below, e = cells
+        inner = np.where((t > 0) & (u > 0), inverse[:, np.maximum(t - 1, 0), np.maximum(u - 1, 0)], 0)
+        g = pw[:, spread + e] * ((inner + below) % q1) % q1
+        m = len(self.terms)
+        half = (qs + 1) // 2
+        total = np.zeros(k_lanes, dtype=np.int64)
+        if m:
+            ji, j1j, jj1, ij, ii = (g[:, k * m:(k + 1) * m] for k in range(5))
+            r = (ji * ((j1j + jj1 - ij) % q1) % q1 - ii * ((jj1 - 1) % q1) % q1
+                 - half[:, None]) % q1
+            s = np.array([t[0] for t in self.terms], dtype=np.int64)
+            total = (r * s[None, :]).sum(axis=1) % qs
+        if self.edges:
+            kk = g[:, 5 * m:]
+            phis = np.array([ph for ph, _ in self.edges], dtype=np.int64)
+            total = (total - (((kk - half[:, None]) % q1) * (phis[None, :] % q1) % q1).sum(axis=1)) % qs
+        shift = -self.shift
+        fac = pw[:, spread + shift] if abs(shift) <= spread else np.array(
+            [pow(int(x), shift, int(q)) for x, q in zip(xs, qs)], dtype=np.int64)
+        rho = fac * det % qs * det % qs * total % qs
+        return det, rho, ok & (det != 0)
+
+    def _cell_arrays(self):
+        import numpy as np
+
+        if getattr(self, "_cells", None) is None:
+            cells = [term[k] for k in range(1, 6) for term in self.terms] + [
+                cell for _, cell in self.edges]
+            self._cells = tuple(np.array([c[k] for c in cells], dtype=np.int64).reshape(-1)
+                                for k in range(4))
+        return self._cells
+
+
+def _inverse_mod(values, qs):
+    """Element-wise inverse of an int64 array modulo primes broadcast from ``qs`` (0 stays 0)."""
+    import numpy as np
+
+    primes = np.broadcast_to(qs, values.shape).ravel().tolist()
+    flat = [pow(v, -1, q) if v else 0 for v, q in zip(values.ravel().tolist(), primes)]
+    return np.array(flat, dtype=np.int64).reshape(values.shape)
+
+
+def _permutation_parity(order: list[int]) -> int:
+    seen = [False] * len(order)
+    sign = 1
+    for start in range(len(order)):
+        if seen[start]:
+            continue
+        length = 0
+        k = start
+        while not seen[k]:
+            seen[k] = True
+            k = order[k]
+            length += 1
+        if length % 2 == 0:
+            sign = -sign
+    return sign
+
+
+def _value_at_dense(lk: LongKnot, x: int, p: int) -> tuple[int, int] | None:
+    """``(det A(x), rho_1(x))`` modulo ``p`` straight from the formulas (dense inverse).
+
+    The reference implementation that :class:`_Plan` is tested against.
     """
     from flint import nmod_mat
 
@@ -261,50 +506,12 @@ def _value_at(lk: LongKnot, x: int, p: int) -> tuple[int, int] | None:
     for k, phik in enumerate(lk.rotation):
         if phik:
             total -= phik * (int(g[k, k]) - half)
-    negatives = sum(1 for s, _, _ in lk.crossings if s < 0)
-    value = 2 * pow(x, 2 * negatives, p) * det * det % p * (total % p) % p
-    return det, value
+    shift = -(sum(lk.rotation) + sum(s for s, _, _ in lk.crossings))
+    factor = pow(x, shift, p) if shift >= 0 else pow(xinv, -shift, p)
+    return det, factor * det % p * det % p * (total % p) % p
 
 
 # -- primes, bounds, interpolation ---------------------------------------------
-def _is_prime_64(n: int) -> bool:
-    """Deterministic Miller-Rabin below 3.3e24 (the first twelve prime bases)."""
-    if n < 2:
-        return False
-    bases = (2, 3, 5, 7, 11, 13, 17, 19, 23, 29, 31, 37)
-    for b in bases:
-        if n % b == 0:
-            return n == b
-    d, s = n - 1, 0
-    while d % 2 == 0:
-        d //= 2
-        s += 1
-    for b in bases:
-        y = pow(b, d, n)
-        if y in (1, n - 1):
-            continue
-        for _ in range(s - 1):
-            y = y * y % n
-            if y == n - 1:
-                break
-        else:
-            return False
-    return True
-
-
-_PRIMES: list[int] = []
-
-
-def _primes(count: int) -> list[int]:
-    """The ``count`` largest primes below 2^62, decreasing."""
-    candidate = _PRIMES[-1] - 2 if _PRIMES else (1 << 62) - 1
-    while len(_PRIMES) < count:
-        if _is_prime_64(candidate):
-            _PRIMES.append(candidate)
-        candidate -= 2
-    return _PRIMES[:count]
-
-
 def _coefficient_bound(lk: LongKnot) -> int:
     """A bound on |coefficients| of ``P`` and of ``T^(n_-) det A`` (Hadamard type).
 
@@ -338,9 +545,14 @@ def _interpolate(points: list[int], values: list[int], p: int) -> list[int]:
     """Coefficients (constant first) of the polynomial through the points, modulo p."""
     n = len(points)
     c = list(values)
+    inverses: dict[int, int] = {}
     for k in range(1, n):
         for m in range(n - 1, k - 1, -1):
-            c[m] = (c[m] - c[m - 1]) * pow(points[m] - points[m - k], -1, p) % p
+            diff = points[m] - points[m - k]
+            inv = inverses.get(diff)
+            if inv is None:
+                inv = inverses[diff] = pow(diff, -1, p)
+            c[m] = (c[m] - c[m - 1]) * inv % p
     coef = [0] * n
     coef[0] = c[n - 1]
     degree = 0
@@ -371,8 +583,141 @@ def _crt(residues: list[list[int]], primes: list[int]) -> list[int]:
 
 
 # -- public functions -----------------------------------------------------------
+#: Up to this many crossings the default is the certified computation.
+CERTIFIED_UP_TO = 30
+#: New points (and one new prime) that must leave the interpolant unchanged.
+_CONFIRMATIONS = 3
+
+
+def _point_sequence(p: int):
+    """Pseudo-random evaluation points in [2, p - 2], reproducible per prime."""
+    import random
+
+    rng = random.Random(p)
+    while True:
+        yield rng.randrange(2, p - 1)
+
+
+def _certified(lk: LongKnot, plan: _Plan) -> tuple[list[int], list[int]]:
+    """Coefficients of ``P = 2 T^(phi + w + 2 n_-) rho_1`` and ``T^(n_-) det A``, proven."""
+    import numpy as np
+
+    from .elimination import primes_below_2_31
+
+    n = len(lk.crossings)
+    negatives = sum(1 for s, _, _ in lk.crossings if s < 0)
+    bound = _coefficient_bound(lk)
+    count = 1
+    while math.prod(primes_below_2_31(count)) <= 2 * bound + 1:
+        count += 1
+    primes = primes_below_2_31(count)
+    npts = 2 * n + 3
+    e = plan.shift + 2 * negatives
+    chosen: dict[int, list[tuple[int, int, int]]] = {p: [] for p in primes}
+    start = 2
+    while any(len(v) < npts for v in chosen.values()):
+        todo = [p for p in primes if len(chosen[p]) < npts]
+        width = npts + 4
+        xs = np.tile(np.arange(start, start + width, dtype=np.int64), len(todo))
+        qs = np.repeat(np.array(todo, dtype=np.int64), width)
+        det, rho, ok = plan.evaluate_batch(xs, qs)
+        for x, q, d, r, good in zip(xs.tolist(), qs.tolist(), det.tolist(), rho.tolist(),
+                                    ok.tolist()):
+            if good and len(chosen[q]) < npts:
+                scale = pow(x, e, q) if e >= 0 else pow(pow(x, -1, q), -e, q)
+                chosen[q].append((x, d * pow(x, negatives, q) % q, 2 * scale * r % q))
+        start += width
+    p_res, d_res = [], []
+    for p in primes:
+        xs_list = [x for x, _, _ in chosen[p]]
+        p_res.append(_interpolate(xs_list, [v for _, _, v in chosen[p]], p))
+        d_res.append(_interpolate(xs_list[:n + 1], [d for _, d, _ in chosen[p]][:n + 1], p))
+    return _crt(p_res, primes), _crt(d_res, primes)
+
+
+def _early_terminated(lk: LongKnot, plan: _Plan) -> Laurent | None:
+    """rho_1 by interpolation in ``u = T + 1/T`` with early termination, or None.
+
+    rho_1 is symmetric, so it is a polynomial ``F(u)`` of degree ``e`` (its
+    highest exponent).  Points are added until ``_CONFIRMATIONS`` successive
+    new points leave ``F`` unchanged modulo a prime, and primes until one
+    more prime leaves the Chinese remainder lift unchanged.  None when the
+    degree cap ``n + 1`` or the Hadamard-type prime count is reached first
+    (the caller then runs the certified computation).
+    """
+    from .elimination import primes_below_2_31
+
+    n = len(lk.crossings)
+    cap = n + 1 + _CONFIRMATIONS + 1
+    bound = _coefficient_bound(lk)
+    residues: list[list[int]] = []
+    primes: list[int] = []
+    previous = None
+    for count in range(1, 10_000):
+        p = primes_below_2_31(count)[-1]
+        us: list[int] = []
+        newton: list[int] = []
+        quiet = 0
+        points = _point_sequence(p)
+        while quiet < _CONFIRMATIONS:
+            if len(us) >= cap:
+                return None
+            x = next(points)
+            got = plan.evaluate(x, p)
+            if got is None:
+                continue
+            u = (x + pow(x, -1, p)) % p
+            if u in us:
+                continue
+            v = got[1]
+            for k, uk in enumerate(us):
+                v = (v - newton[k]) * pow(u - uk, -1, p) % p
+            us.append(u)
+            newton.append(v)
+            quiet = quiet + 1 if v == 0 else 0
+        keep = len(newton) - _CONFIRMATIONS
+        residues.append(_newton_to_monomial(us[:keep], newton[:keep], p))
+        primes.append(p)
+        width = max(len(r) for r in residues)
+        lifted = _crt([r + [0] * (width - len(r)) for r in residues], primes)
+        while lifted and lifted[-1] == 0:
+            lifted.pop()
+        if lifted == previous:
+            break
+        previous = lifted
+        if math.prod(primes) > 4 * bound * 4 ** (n + 2) + 1:
+            return None
+    rho = Laurent.constant(0)
+    u_poly = Laurent({-1: 1, 1: 1})
+    power = Laurent.constant(1)
+    for c in lifted:
+        if c:
+            rho = rho + power * c
+        power = power * u_poly
+    return rho
+
+
+def _newton_to_monomial(points: list[int], newton: list[int], p: int) -> list[int]:
+    """Monomial coefficients (constant first) of a Newton-form polynomial modulo p."""
+    if not newton:
+        return []
+    coef = [newton[-1]]
+    for k in range(len(newton) - 2, -1, -1):
+        xk = points[k]
+        new = [0] * (len(coef) + 1)
+        for e, c in enumerate(coef):
+            new[e + 1] = (new[e + 1] + c) % p
+            new[e] = (new[e] - xk * c) % p
+        new[0] = (new[0] + newton[k]) % p
+        coef = new
+    while coef and coef[-1] == 0:
+        coef.pop()
+    return coef
+
+
 def perturbed_alexander(diagram: Diagram, outer_face: int | None = None,
-                        cut_edge: int | None = None) -> PerturbedAlexander:
+                        cut_edge: int | None = None,
+                        certified: bool | None = None) -> PerturbedAlexander:
     """The Alexander polynomial and the perturbed Alexander invariant rho_1 of a knot.
 
     Parameters
@@ -381,12 +726,19 @@ def perturbed_alexander(diagram: Diagram, outer_face: int | None = None,
         A knot diagram (one component).
     outer_face, cut_edge : int, optional
         Where to cut (see :func:`long_knot`); the result does not depend on them.
+    certified : bool, optional
+        True: interpolate at the proven number of points modulo the proven
+        number of primes.  False: stop early (see Notes).  Default: certified
+        up to :data:`CERTIFIED_UP_TO` crossings.
 
     Returns
     -------
     PerturbedAlexander
-        ``alexander``: Conway-normalised Delta(T); ``rho_1``: a Laurent
-        polynomial with rho_1(1/T) = rho_1(T), negated by a mirror image.
+        ``alexander``: Conway-normalised Delta(T) (None-free; computed only
+        when certified, otherwise taken from
+        :func:`knotsift.invariants.alexander.alexander_polynomial`);
+        ``rho_1``: a Laurent polynomial with rho_1(1/T) = rho_1(T), negated by
+        a mirror image.
 
     Raises
     ------
@@ -401,14 +753,24 @@ def perturbed_alexander(diagram: Diagram, outer_face: int | None = None,
 
     Notes
     -----
-    ``P(T) = 2 T^(phi + w + 2 n_-) rho_1`` is a polynomial of degree at most
-    ``2n + 2`` and ``T^(n_-) det A`` one of degree at most ``n`` (rows of
-    negative crossings times ``T`` have entries of degree at most one).  Both
-    are evaluated at ``2n + 3`` points modulo enough primes below 2^62 to
-    exceed twice a Hadamard-type coefficient bound, by a dense inverse over
-    Z/p (FLINT), then interpolated and combined by the Chinese remainder
-    theorem.  Exact; about ``O(n^4)`` word operations.  The Alexander
-    polynomial is checked against Delta(1) = 1 and the symmetry of rho_1.
+    Each evaluation modulo a prime below 2^31 inverts one ``n x n`` matrix
+    (Woodbury reduction of ``A``; FLINT ``nmod_mat``), ``O(n^3)``.
+
+    *Certified*: ``P(T) = 2 T^(phi + w + 2 n_-) rho_1`` is a polynomial of
+    degree at most ``2n + 2`` and ``T^(n_-) det A`` one of degree at most
+    ``n`` (rows of negative crossings times ``T`` have entries of degree at
+    most one); both are interpolated from ``2n + 3`` points modulo enough
+    primes to exceed twice a Hadamard-type coefficient bound, then lifted by
+    the Chinese remainder theorem.  ``O(n^4)`` and proven exact.
+
+    *Early termination*: rho_1 is interpolated as a polynomial in
+    ``T + 1/T`` at pseudo-random points until three new points change
+    nothing, and primes are added until one more prime changes nothing.  A
+    wrong stop needs a non-zero polynomial of degree at most ``2n + 2`` to
+    vanish at three pseudo-random points of a field of size about 2^31
+    (probability below ``(2n/2^31)^3``) or a lift to survive a new prime; it
+    costs ``O(e n^3)`` for rho_1 of degree ``e``.  The identities
+    Delta(1) = 1 and rho_1(1/T) = rho_1(T) are checked on certified results.
 
     References
     ----------
@@ -419,40 +781,25 @@ def perturbed_alexander(diagram: Diagram, outer_face: int | None = None,
     if diagram.number_of_crossings() == 0:
         return PerturbedAlexander(Laurent.constant(1), Laurent.constant(0))
     lk = long_knot(diagram, outer_face, cut_edge)
+    plan = _Plan(lk)
     n = len(lk.crossings)
+    if certified is None:
+        certified = n <= CERTIFIED_UP_TO
+    if not certified:
+        rho = _early_terminated(lk, plan)
+        if rho is not None:
+            from .alexander import alexander_polynomial
+
+            return PerturbedAlexander(alexander_polynomial(diagram), rho)
     negatives = sum(1 for s, _, _ in lk.crossings if s < 0)
-    writhe = sum(s for s, _, _ in lk.crossings)
-    phi = sum(lk.rotation)
-    bound = _coefficient_bound(lk)
-    count = 1
-    while math.prod(_primes(count)) <= 2 * bound + 1:
-        count += 1
-    primes = _primes(count)
-    npts = 2 * n + 3
-    p_res, d_res = [], []
-    for p in primes:
-        xs, pv, dv = [], [], []
-        x = 2
-        while len(xs) < npts:
-            got = _value_at(lk, x, p)
-            if got is not None:
-                xs.append(x)
-                dv.append(got[0] * pow(x, negatives, p) % p)
-                pv.append(got[1])
-            x += 1
-        p_res.append(_interpolate(xs, pv, p))
-        d_res.append(_interpolate(xs[:n + 1], dv[:n + 1], p))
-    big_p = _crt(p_res, primes)
-    det_poly = _crt(d_res, primes)
+    big_p, det_poly = _certified(lk, plan)
     if any(c % 2 for c in big_p):
         raise RuntimeError("internal error: 2 rho_1 has an odd coefficient")
-    shift2 = -phi - writhe - 2 * negatives
+    shift2 = -plan.shift - 2 * negatives
     if shift2 % 2:
         raise RuntimeError("internal error: phi + writhe is odd")
     # Delta = T^((-phi - w)/2 - n_-) (T^(n_-) det A)
     delta = Laurent.from_coefficients(shift2 // 2, det_poly)
-    if delta.evaluate(1) == -1:
-        raise RuntimeError("internal error: det A(1) = -1, the normalisation is off")
     if delta.evaluate(1) != 1 or not delta.is_symmetric():
         raise RuntimeError(f"internal error: Delta = {delta} is not Conway-normalised")
     rho = Laurent.from_coefficients(shift2, [c // 2 for c in big_p])
@@ -461,7 +808,7 @@ def perturbed_alexander(diagram: Diagram, outer_face: int | None = None,
     return PerturbedAlexander(delta, rho)
 
 
-def rho_1(diagram: Diagram) -> Laurent:
+def rho_1(diagram: Diagram, certified: bool | None = None) -> Laurent:
     """The perturbed Alexander invariant rho_1 of a knot (see :func:`perturbed_alexander`).
 
     Examples
@@ -470,7 +817,7 @@ def rho_1(diagram: Diagram) -> Laurent:
     >>> str(rho_1(figure_eight))
     '0'
     """
-    return perturbed_alexander(diagram).rho_1
+    return perturbed_alexander(diagram, certified=certified).rho_1
 
 
 def rho_1_hash(diagram: Diagram, points: int = 2) -> tuple[int | None, ...]:
@@ -486,35 +833,34 @@ def rho_1_hash(diagram: Diagram, points: int = 2) -> tuple[int | None, ...]:
     Returns
     -------
     tuple of int or None
-        ``rho_1(x) mod p`` for each pair, as an integer in ``[0, p)``; None
-        where ``Delta(x) = 0 mod p`` (the matrix cannot be inverted there),
-        which depends on the knot only.  Equal knots give equal tuples;
-        different values prove different knots (or mirror images).
+        ``rho_1(x) mod p`` for each pair, in ``[0, p)``; None where ``A(x)``
+        is singular modulo ``p`` (Delta(x) = 0 mod p, or x a root of unity of
+        order 1), which depends on the knot only.  Equal knots give equal
+        tuples; different tuples prove different knots (or mirror images).
 
     Notes
     -----
-    One dense inverse modulo a 62-bit prime per point: ``O(n^3)``.
+    One ``n x n`` inverse modulo a prime below 2^31 per point: ``O(n^3)``.
     """
     _check_knot(diagram)
     if not 1 <= points <= len(HASH_POINTS):
         raise ValueError(f"points must be 1..{len(HASH_POINTS)}, got {points!r}")
     if diagram.number_of_crossings() == 0:
         return (0,) * points
-    lk = long_knot(diagram)
-    writhe = sum(s for s, _, _ in lk.crossings)
-    negatives = sum(1 for s, _, _ in lk.crossings if s < 0)
-    shift = sum(lk.rotation) + writhe + 2 * negatives
+    plan = _Plan(long_knot(diagram))
     out: list[int | None] = []
     for p, x in HASH_POINTS[:points]:
-        got = _value_at(lk, x, p)
-        if got is None:
-            out.append(None)
-            continue
-        # rho_1(x) = P(x) / (2 x^shift)
-        scale = pow(2 * pow(x, shift, p) % p, -1, p) if shift >= 0 else \
-            pow(x, -shift, p) * pow(2, -1, p) % p
-        out.append(got[1] * scale % p)
+        got = plan.evaluate(x, p)
+        out.append(None if got is None else got[1])
     return tuple(out)
 
 
-HASH_POINTS = tuple(zip(_primes(4), (3, 5, 7, 11)))
+
+
+def _hash_points() -> tuple[tuple[int, int], ...]:
+    from .elimination import primes_below_2_31
+
+    return tuple(zip(primes_below_2_31(4), (3, 5, 7, 11)))
+
+
+HASH_POINTS = _hash_points()
