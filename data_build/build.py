@@ -180,7 +180,8 @@ def _coincidence_groups(forms: list[tuple[str, dict[str, str]]]
                         ) -> dict[str, dict[str, list[str]]]:
     """For each invariant, the values shared by several forms, with their labels."""
     groups: dict[str, dict[str, list[str]]] = {}
-    for inv in ("jones", "alexander", "determinant", "signature", "fingerprint"):
+    for inv in ("jones", "alexander", "determinant", "signature", "rho_1", "homology",
+                "fingerprint"):
         by_value: dict[str, list[str]] = defaultdict(list)
         for label, texts in forms:
             by_value[texts[inv]].append(label)
@@ -369,13 +370,15 @@ def build_table(output: str | Path, max_crossings: int = 10, keep_going: bool = 
                 "label": label, "name": k.name, "is_reference": int(is_ref),
                 "components": fp.components, "jones": str(fp.jones),
                 "alexander": str(fp.alexander), "determinant": fp.determinant,
-                "signature": fp.signature, "fingerprint": fp.key(),
+                "signature": fp.signature, "rho_1": fp.texts()["rho_1"],
+                "homology": fp.texts()["homology"], "fingerprint": fp.key(),
                 "pd_code": json.dumps(d.pd_code()),
             })
     blind = [k.name for k in everything if not k.amphichiral and k.fp.is_mirror_blind()]
     groups = _coincidence_groups([(r["label"], {
         "jones": r["jones"], "alexander": r["alexander"], "determinant": str(r["determinant"]),
-        "signature": str(r["signature"]), "fingerprint": r["fingerprint"]}) for r in form_rows])
+        "signature": str(r["signature"]), "rho_1": r["rho_1"], "homology": r["homology"],
+        "fingerprint": r["fingerprint"]}) for r in form_rows])
     # a mirror-blind chiral knot's two forms always share values: not a coincidence of names
     name_of = {r["label"]: r["name"] for r in form_rows}
     coincidence_rows = []
@@ -400,7 +403,8 @@ def build_table(output: str | Path, max_crossings: int = 10, keep_going: bool = 
         "mirror_mark": MIRROR_MARK,
         "signature_convention": "right-handed trefoil has signature -2",
         "reference_chirality_rule": "negative signature; else Jones leaning to positive "
-                                    "powers; else as constructed (see data_build/chirality.py)",
+                                    "powers; else rho_1 with a positive top coefficient; else "
+                                    "as constructed (see data_build/chirality.py)",
     }
     knot_rows = [{
         "name": k.name, "kind": k.kind, "crossing_number": k.crossing_number,

@@ -9,9 +9,15 @@ rebuilds are reproducible and users can apply it themselves:
    powers: highest exponent + lowest exponent > 0;
 3. if that sum is 0, the image whose Jones coefficients, read from the highest
    power down, are larger in lexicographic order;
-4. if V(t) = V(1/t) and the signature is 0, the invariants cannot tell the two
-   images apart: the construction in reference/ is the reference as written,
-   and the knot is flagged (chirality basis "none").
+4. if V(t) = V(1/t) and the signature is 0, the image whose rho_1 (the
+   perturbed Alexander invariant, negated by a mirror image) has a positive
+   coefficient at its highest power;
+5. if rho_1 is 0 as well, the invariants cannot tell the two images apart:
+   the construction in reference/ is the reference as written, and the knot
+   is flagged (chirality basis "none").
+
+Step 4 was added with rho_1; it only decides knots that steps 1-3 left open,
+so every reference image chosen before stays as it was.
 """
 
 from __future__ import annotations
@@ -38,16 +44,21 @@ def is_reference_chirality(fp: Fingerprint) -> bool | None:
     if fp.signature != 0:
         return fp.signature < 0
     lean = _jones_lean(fp)
-    if lean == 0:
-        return None
-    return lean > 0
+    if lean != 0:
+        return lean > 0
+    if fp.rho_1 is not None and not fp.rho_1.is_zero():
+        top = fp.rho_1.coefficient(fp.rho_1.max_exponent)
+        return top > 0
+    return None
 
 
 def chirality_basis(fp: Fingerprint) -> str:
-    """Which invariants see the chirality: "signature", "jones", "signature+jones" or "none"."""
+    """Which invariants see the chirality: "signature", "jones", "rho_1" joined by "+", or "none"."""
     parts = []
     if fp.signature != 0:
         parts.append("signature")
     if fp.jones != fp.jones.mirror():
         parts.append("jones")
+    if fp.rho_1 is not None and not fp.rho_1.is_zero():
+        parts.append("rho_1")
     return "+".join(parts) or "none"

@@ -6,7 +6,7 @@ from .table import ReferenceTable
 
 __all__ = ["describe_entry", "entry_text"]
 
-_INVS = ("jones", "alexander", "determinant", "signature")
+_INVS = ("jones", "alexander", "determinant", "signature", "rho_1", "homology")
 
 
 def describe_entry(name: str, mirrored: bool, table: ReferenceTable) -> dict:

@@ -11,7 +11,7 @@ from collections import Counter
 
 from .diagram import Diagram
 from .errors import DiagramError, KnotsiftError
-from .invariants.fingerprint import Fingerprint, fingerprint
+from .invariants.fingerprint import RHO_1_UP_TO, Fingerprint, fingerprint
 from .result import Candidate, IdentifyResult
 from .table import ReferenceTable, open_table
 
@@ -25,6 +25,8 @@ INVARIANT_NAMES = {
     "alexander": "the Alexander polynomial",
     "determinant": "the determinant",
     "signature": "the signature",
+    "rho_1": "rho_1 (the perturbed Alexander invariant)",
+    "homology": "the double-cover homology",
 }
 
 EVIDENCE_NOTE = ("a match of invariants is evidence, not proof: different knots can share "
@@ -40,8 +42,18 @@ def _chirality(knot: dict, matched: list) -> str:
 
 
 def match_fingerprint(fp: Fingerprint, table: ReferenceTable) -> tuple[str, list[Candidate]]:
-    """Exact lookup: the status and the candidates whose whole fingerprint equals ``fp``."""
-    forms = table.by_fingerprint(fp.key())
+    """Exact lookup: the status and the candidates whose whole fingerprint equals ``fp``.
+
+    When rho_1 was left out for cost (a knot diagram above
+    :data:`knotsift.invariants.fingerprint.RHO_1_UP_TO` crossings) the other
+    invariants are matched; :func:`identify_diagram` then says so.
+    """
+    if fp.components == 1 and fp.rho_1 is None:
+        texts = fp.texts()
+        forms = table.by_invariants({k: texts[k] for k in INVARIANT_NAMES if k != "rho_1"}
+                                    | {"components": "1"})
+    else:
+        forms = table.by_fingerprint(fp.key())
     by_name: dict[str, list] = {}
     for f in forms:
         by_name.setdefault(f.name, []).append(f)
@@ -51,7 +63,8 @@ def match_fingerprint(fp: Fingerprint, table: ReferenceTable) -> tuple[str, list
         chir = _chirality(knot, matched)
         label = matched[0].label if chir in ("same", "mirror") else name
         candidates.append(Candidate(
-            name=name, label=label, chirality=chir, agrees=list(INVARIANT_NAMES),
+            name=name, label=label, chirality=chir,
+            agrees=[k for k in INVARIANT_NAMES if k != "rho_1" or fp.rho_1 is not None],
             crossing_number=knot["crossing_number"], kind=knot["kind"],
             aliases=[a.strip() for a in knot["aliases"].split(";") if a.strip()]))
     candidates.sort(key=lambda c: (c.crossing_number, c.name))
@@ -83,8 +96,10 @@ def _separation(fp: Fingerprint, table: ReferenceTable, candidates: list[Candida
         separated_by = {}
         for f in others[:25]:
             row = {"jones": f.jones, "alexander": f.alexander,
-                   "determinant": str(f.determinant), "signature": str(f.signature)}
-            separated_by[f.label] = [k for k in INVARIANT_NAMES if row[k] != texts[k]]
+                   "determinant": str(f.determinant), "signature": str(f.signature),
+                   "rho_1": f.rho_1, "homology": f.homology}
+            separated_by[f.label] = [k for k in INVARIANT_NAMES
+                                     if texts[k] != "" and row[k] != texts[k]]
         out[inv] = {"value": value, "count": len(sharing), "labels": labels[:25],
                     "others_separated_by": separated_by}
         if candidates and other_knots and inv in ("jones", "alexander"):
@@ -104,12 +119,16 @@ def _chirality_note(fp: Fingerprint, cand: Candidate) -> str:
         basis.append("V(t) differs from V(1/t)")
     if fp.signature != 0:
         basis.append(f"the signature is {fp.signature}, not 0")
+    if fp.rho_1 is not None and not fp.rho_1.is_zero():
+        basis.append("rho_1 is not 0 (a mirror image has -rho_1)")
     if cand.chirality in ("same", "mirror"):
         return ("chirality from " + " and ".join(basis) + "; relative to the table's "
                 "reference diagram (negative signature, see README)")
     if cand.chirality == "undetermined":
-        return ("this knot is chiral, but V(t) = V(1/t) and the signature is 0 here: the "
-                "computed invariants cannot tell it from its mirror image")
+        rho = ("rho_1 was not computed (diagram too large)" if fp.rho_1 is None
+               else "rho_1 = 0, which leaves the question open")
+        return ("this knot is chiral, but V(t) = V(1/t), the signature is 0 and " + rho +
+                " here: the computed invariants cannot tell it from its mirror image")
     return "amphichiral: the knot equals its mirror image"
 
 
@@ -156,6 +175,7 @@ def identify_diagram(diagram: Diagram, table: ReferenceTable | None = None,
     fp = fingerprint(simple, simplified=True)
     status, candidates = match_fingerprint(fp, table)
     separation, sep_notes = _separation(fp, table, candidates)
+    skipped = fp.components == 1 and fp.rho_1 is None
     result = IdentifyResult(status=status, candidates=candidates, invariants=fp.texts(),
                             separation=separation, source=source, notation=notation,
                             crossings_input=diagram.number_of_crossings(),
@@ -168,6 +188,11 @@ def identify_diagram(diagram: Diagram, table: ReferenceTable | None = None,
         result.notes.extend(sep_notes)
     else:
         result.notes.extend(_beyond_table(fp, simple, table))
+    if skipped:
+        result.notes.append(
+            f"rho_1 was not computed: the simplified diagram has {simple.number_of_crossings()} "
+            f"crossings, above the limit of {RHO_1_UP_TO}; the match rests on the other "
+            "invariants")
     trivial = _trivial_note(fp)
     if trivial:
         result.notes.append(trivial)

@@ -109,10 +109,11 @@ class IdentifyResult:
         if self.crossings_input is not None:
             lines.append(f"  crossings: {self.crossings_input} in the input, "
                          f"{self.crossings_simplified} after simplification")
-        for key in ("jones", "alexander", "determinant", "signature"):
+        for key in ("jones", "alexander", "determinant", "signature", "rho_1", "homology"):
             if self.invariants.get(key):
                 label = {"jones": "Jones V(t)", "alexander": "Alexander", "determinant":
-                         "determinant", "signature": "signature"}[key]
+                         "determinant", "signature": "signature", "rho_1": "rho_1",
+                         "homology": "H1(cover)"}[key]
                 sep = self.separation.get(key)
                 share = f"   [{sep['count']} table entr{'y' if sep['count'] == 1 else 'ies'}]" \
                     if sep else ""

@@ -10,7 +10,9 @@ read-only here.  Users may query it with plain SQL; the schema is:
 ``forms``
     one row per knot and chirality (amphichiral knots once): label (the name,
     with ``*`` for the mirror image of the reference diagram), is_reference,
-    the invariants in canonical text, the whole fingerprint key, a PD code.
+    the invariants in canonical text (Jones, Alexander, determinant,
+    signature, rho_1, double-cover homology), the whole fingerprint key, a PD
+    code.
 ``coincidences``
     for each invariant and each value shared by several forms: the labels.
 ``metadata``
@@ -37,7 +39,7 @@ __all__ = [
     "schema",
 ]
 
-SCHEMA_VERSION = 1
+SCHEMA_VERSION = 2
 #: Appended to a name for the mirror image of the table's reference diagram.
 MIRROR_MARK = "*"
 
@@ -80,6 +82,8 @@ def schema():
         sa.Column("alexander", sa.Text, nullable=False, index=True),
         sa.Column("determinant", sa.Integer, nullable=False, index=True),
         sa.Column("signature", sa.Integer, nullable=False),
+        sa.Column("rho_1", sa.Text, nullable=False, index=True),
+        sa.Column("homology", sa.Text, nullable=False, index=True),
         sa.Column("fingerprint", sa.Text, nullable=False, index=True),
         sa.Column("pd_code", sa.Text, nullable=False),
     )
@@ -105,6 +109,8 @@ class TableForm:
     alexander: str
     determinant: int
     signature: int
+    rho_1: str
+    homology: str
     fingerprint: str
     pd_code: str
 
@@ -118,7 +124,10 @@ def default_table_path() -> Path:
 
 
 _FORM_COLUMNS = ("label, name, is_reference, components, jones, alexander, determinant, "
-                 "signature, fingerprint, pd_code")
+                 "signature, rho_1, homology, fingerprint, pd_code")
+#: The invariant columns of ``forms`` that lookups may filter on.
+INVARIANT_COLUMNS = ("jones", "alexander", "determinant", "signature", "rho_1", "homology",
+                     "components")
 
 
 class ReferenceTable:
@@ -170,12 +179,22 @@ class ReferenceTable:
 
     def by_invariant(self, invariant: str, value: str) -> list[TableForm]:
         """Forms sharing one invariant's canonical text."""
-        if invariant not in ("jones", "alexander", "determinant", "signature", "components"):
+        if invariant not in INVARIANT_COLUMNS:
             raise TableError(f"unknown invariant column {invariant!r}", value=invariant)
         return self._forms(f"{invariant} = ?", (value,))
 
+    def by_invariants(self, values: dict[str, str]) -> list[TableForm]:
+        """Forms agreeing with every given invariant (canonical texts)."""
+        for invariant in values:
+            if invariant not in INVARIANT_COLUMNS:
+                raise TableError(f"unknown invariant column {invariant!r}", value=invariant)
+        if not values:
+            return self.all_forms()
+        where = " AND ".join(f"{k} = ?" for k in values)
+        return self._forms(where, tuple(values.values()))
+
     def count_by_invariant(self, invariant: str, value: str) -> int:
-        if invariant not in ("jones", "alexander", "determinant", "signature", "components"):
+        if invariant not in INVARIANT_COLUMNS:
             raise TableError(f"unknown invariant column {invariant!r}", value=invariant)
         return self._db.execute(f"SELECT count(*) FROM forms WHERE {invariant} = ?",
                                 (value,)).fetchone()[0]

@@ -1,8 +1,9 @@
 """The fingerprint: the bundle of normalised invariants that the table is keyed by.
 
 A fingerprint is chirality-aware: the mirror image of a knot has the Jones
-polynomial V(1/t) and the opposite signature, while the Alexander polynomial
-and the determinant do not see mirrors.  Its canonical text (``key``) is what
+polynomial V(1/t), the opposite signature and the opposite rho_1, while the
+Alexander polynomial, the determinant and the double-cover homology do not see
+mirrors.  Its canonical text (``key``) is what
 the reference table stores for exact lookup.
 """
 
@@ -13,7 +14,11 @@ from dataclasses import dataclass
 from ..diagram import Diagram
 from ..laurent import Laurent
 
-__all__ = ["Fingerprint", "fingerprint", "INVARIANTS"]
+__all__ = ["Fingerprint", "fingerprint", "INVARIANTS", "RHO_1_UP_TO"]
+
+#: rho_1 is computed for knot diagrams of at most this many crossings (after
+#: simplification); above, it is left out for cost and the result says so.
+RHO_1_UP_TO = 60
 
 #: The invariants in a fingerprint, in the order of the key, with what each sees.
 INVARIANTS = {
@@ -21,6 +26,8 @@ INVARIANTS = {
     "alexander": "Conway-normalised Alexander polynomial; blind to mirror images",
     "determinant": "|Delta(-1)| = |V(-1)|; blind to mirror images",
     "signature": "knot signature; a mirror image has the opposite sign",
+    "rho_1": "perturbed Alexander invariant rho_1 (knots); a mirror image has -rho_1",
+    "homology": "homology of the double branched cover; blind to mirror images",
 }
 
 
@@ -38,6 +45,13 @@ class Fingerprint:
     determinant : int
     signature : int
         In the convention where the right-handed trefoil has signature -2.
+    rho_1 : Laurent or None
+        The perturbed Alexander invariant (Bar-Natan and van der Veen 2024);
+        None for links and for knot diagrams above :data:`RHO_1_UP_TO`
+        crossings (left out for cost).
+    homology : tuple of int
+        Invariant factors of H_1 of the double branched cover (see
+        :func:`knotsift.invariants.double_cover.double_cover_homology`).
     """
 
     components: int
@@ -45,43 +59,65 @@ class Fingerprint:
     alexander: Laurent | None
     determinant: int
     signature: int
+    rho_1: Laurent | None = None
+    homology: tuple[int, ...] = ()
 
     def mirror(self) -> "Fingerprint":
         """The fingerprint of the mirror image."""
         return Fingerprint(self.components, self.jones.mirror(), self.alexander,
-                           self.determinant, -self.signature)
+                           self.determinant, -self.signature,
+                           None if self.rho_1 is None else -self.rho_1, self.homology)
 
     def is_mirror_blind(self) -> bool:
         """True when these invariants cannot tell this knot from its mirror image."""
         return self == self.mirror()
 
     def texts(self) -> dict[str, str]:
-        """Each invariant in canonical text form."""
+        """Each invariant in canonical text form (rho_1: "" when not computed)."""
+        from .double_cover import homology_text
+
         return {
             "components": str(self.components),
             "jones": str(self.jones),
             "alexander": "" if self.alexander is None else str(self.alexander),
             "determinant": str(self.determinant),
             "signature": str(self.signature),
+            "rho_1": "" if self.rho_1 is None else str(self.rho_1),
+            "homology": homology_text(self.homology),
         }
 
     def key(self) -> str:
         """Canonical text of the whole fingerprint (what the table stores)."""
         t = self.texts()
         return (f"c={t['components']};V={t['jones']};A={t['alexander']};"
-                f"D={t['determinant']};s={t['signature']}")
+                f"D={t['determinant']};s={t['signature']};r={t['rho_1']};"
+                f"H={t['homology']}")
 
     def unoriented_key(self) -> str:
         """The key shared by a knot and its mirror image (the smaller of the two keys)."""
         return min(self.key(), self.mirror().key())
 
     def __mul__(self, other: "Fingerprint") -> "Fingerprint":
-        """The fingerprint of a connected sum (knots): products and a sum of signatures."""
+        """The fingerprint of a connected sum (knots).
+
+        Products of the polynomials and determinants, a sum of signatures, a
+        direct sum of the homology groups, and
+        ``rho_1 = Delta_2^2 rho_1' + Delta_1^2 rho_1''`` (the sum inside
+        rho_1 adds up over the two halves of a long knot; checked against
+        direct computation in the tests).
+        """
+        from .double_cover import homology_sum
+
         if self.components != 1 or other.components != 1:
             raise ValueError("connected sums of fingerprints are defined here for knots only")
+        rho = None
+        if self.rho_1 is not None and other.rho_1 is not None:
+            rho = (other.alexander * other.alexander * self.rho_1
+                   + self.alexander * self.alexander * other.rho_1)
         return Fingerprint(1, self.jones * other.jones, self.alexander * other.alexander,
                            self.determinant * other.determinant,
-                           self.signature + other.signature)
+                           self.signature + other.signature, rho,
+                           homology_sum(self.homology, other.homology))
 
 
 def fingerprint(diagram: Diagram, simplified: bool = False) -> Fingerprint:
@@ -99,21 +135,31 @@ def fingerprint(diagram: Diagram, simplified: bool = False) -> Fingerprint:
     --------
     >>> trefoil = Diagram([(1, 5, 2, 4), (3, 1, 4, 6), (5, 3, 6, 2)])
     >>> fingerprint(trefoil).key()
-    'c=1;V=t + t^3 - t^4;A=t^-1 - 1 + t;D=3;s=-2'
+    'c=1;V=t + t^3 - t^4;A=t^-1 - 1 + t;D=3;s=-2;r=-t^-2 + 2t^-1 - 2 + 2t - t^2;H=Z/3'
     """
     from ..simplify import simplify
     from .alexander import alexander_polynomial
+    from .double_cover import double_cover_homology
     from .jones import jones_polynomial
+    from .perturbed_alexander import perturbed_alexander
     from .signature import knot_signature
 
     d = diagram if simplified else simplify(diagram)
     jones = jones_polynomial(d)
     components = d.number_of_components()
-    alexander = alexander_polynomial(d) if components == 1 else None
+    alexander = rho = None
+    if components == 1:
+        if d.number_of_crossings() <= RHO_1_UP_TO:
+            # Delta comes from the same matrix as rho_1 (and equals alexander_polynomial)
+            both = perturbed_alexander(d)
+            alexander, rho = both.alexander, both.rho_1
+        else:
+            alexander = alexander_polynomial(d)
     if alexander is not None:
         det = abs(alexander.evaluate(-1))
     else:
         from .determinant import determinant
 
         det = determinant(d)
-    return Fingerprint(components, jones, alexander, det, knot_signature(d))
+    return Fingerprint(components, jones, alexander, det, knot_signature(d), rho,
+                       double_cover_homology(d))

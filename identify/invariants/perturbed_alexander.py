@@ -781,16 +781,20 @@ def perturbed_alexander(diagram: Diagram, outer_face: int | None = None,
     if diagram.number_of_crossings() == 0:
         return PerturbedAlexander(Laurent.constant(1), Laurent.constant(0))
     lk = long_knot(diagram, outer_face, cut_edge)
-    plan = _Plan(lk)
-    n = len(lk.crossings)
     if certified is None:
-        certified = n <= CERTIFIED_UP_TO
+        certified = len(lk.crossings) <= CERTIFIED_UP_TO
     if not certified:
-        rho = _early_terminated(lk, plan)
+        rho = _early_terminated(lk, _Plan(lk))
         if rho is not None:
             from .alexander import alexander_polynomial
 
             return PerturbedAlexander(alexander_polynomial(diagram), rho)
+    return _from_long_knot(lk)
+
+
+def _from_long_knot(lk: LongKnot) -> PerturbedAlexander:
+    """The certified computation on a long knot (any valid rotation numbers)."""
+    plan = _Plan(lk)
     negatives = sum(1 for s, _, _ in lk.crossings if s < 0)
     big_p, det_poly = _certified(lk, plan)
     if any(c % 2 for c in big_p):
