@@ -403,7 +403,7 @@ def build_table(output: str | Path, max_crossings: int = 10, keep_going: bool = 
         "mirror_mark": MIRROR_MARK,
         "signature_convention": "right-handed trefoil has signature -2",
         "reference_chirality_rule": "negative signature; else Jones leaning to positive "
-                                    "powers; else rho_1 with a positive top coefficient; else "
+                                    "powers; else rho_1 with a negative top coefficient; else "
                                     "as constructed (see data_build/chirality.py)",
     }
     knot_rows = [{

@@ -8,13 +8,14 @@ from ..diagram import Diagram
 from ..errors import InvariantError
 from ..laurent import Laurent
 from ..partition import Partition
-from .elimination import linear_polynomial_determinant
+from .elimination import kronecker_polynomial_determinant, linear_polynomial_determinant
 
 __all__ = ["alexander_matrix", "alexander_polynomial"]
 
-# Up to this many crossings the minor is expanded by fraction-free elimination
-# over Z[t]; above it, by elimination modulo primes at many points.
-SMALL_DIAGRAM = 12
+# Up to this many crossings the minor is expanded by one FLINT integer
+# determinant (Kronecker substitution); above it, by elimination modulo primes
+# at many points.  The crossover was measured in bench/bench_perturbed_alexander.py.
+SMALL_DIAGRAM = 40
 
 Entry = tuple[int, int]  # c0 + c1 t
 
@@ -192,6 +193,8 @@ def _minor_determinant(rows: list[dict[int, Entry]], n: int, method: str) -> lis
     if method == "bareiss":
         dense = [[_ptrim(list(row.get(c, (0, 0)))) for c in range(n - 1)] for row in minor]
         return _bareiss_determinant(dense)
+    if method == "kronecker":
+        return kronecker_polynomial_determinant(minor, n - 1)
     return linear_polynomial_determinant(minor, n - 1)
 
 
@@ -222,10 +225,11 @@ def alexander_polynomial(diagram: Diagram, method: str | None = None) -> Laurent
     ----------
     diagram : Diagram
         A knot diagram (one component).
-    method : {None, "bareiss", "modular"}, optional
-        How to expand the minor: fraction-free elimination over Z[t], or
-        elimination modulo primes at many points followed by interpolation.
-        The default takes the first up to 12 crossings and the second above.
+    method : {None, "bareiss", "kronecker", "modular"}, optional
+        How to expand the minor: fraction-free elimination over Z[t], one
+        integer determinant at t = 2^K (FLINT), or elimination modulo primes
+        at many points followed by interpolation.  The default takes
+        "kronecker" up to 40 crossings and "modular" above.
 
     Returns
     -------
@@ -263,8 +267,9 @@ def alexander_polynomial(diagram: Diagram, method: str | None = None) -> Laurent
     some of their algebraic properties" (1970), for the normalisation.
     """
     _check_knot(diagram, "Alexander polynomial")
-    if method not in (None, "bareiss", "modular"):
-        raise ValueError(f"method must be None, 'bareiss' or 'modular', got {method!r}")
+    if method not in (None, "bareiss", "kronecker", "modular"):
+        raise ValueError(f"method must be None, 'bareiss', 'kronecker' or 'modular', "
+                         f"got {method!r}")
     n = diagram.number_of_crossings()
     if n <= 1:
         return Laurent.constant(1)
@@ -272,5 +277,5 @@ def alexander_polynomial(diagram: Diagram, method: str | None = None) -> Laurent
     if arcs != n:
         raise RuntimeError(f"internal error: a knot with {n} crossings has {arcs} arcs")
     if method is None:
-        method = "bareiss" if n <= SMALL_DIAGRAM else "modular"
+        method = "kronecker" if n <= SMALL_DIAGRAM else "modular"
     return _conway_normalised(_minor_determinant(rows, n, method))

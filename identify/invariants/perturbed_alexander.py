@@ -635,31 +635,46 @@ def _certified(lk: LongKnot, plan: _Plan) -> tuple[list[int], list[int]]:
     return _crt(p_res, primes), _crt(d_res, primes)
 
 
+_PRIMES_62: list[int] = []
+
+
+def _primes_below_2_62(count: int) -> list[int]:
+    """The ``count`` largest primes below 2^62, decreasing (FLINT's primality test)."""
+    from flint import fmpz
+
+    candidate = _PRIMES_62[-1] - 2 if _PRIMES_62 else (1 << 62) - 1
+    while len(_PRIMES_62) < count:
+        if fmpz(candidate).is_prime():
+            _PRIMES_62.append(candidate)
+        candidate -= 2
+    return _PRIMES_62[:count]
+
+
 def _early_terminated(lk: LongKnot, plan: _Plan) -> Laurent | None:
     """rho_1 by interpolation in ``u = T + 1/T`` with early termination, or None.
 
     rho_1 is symmetric, so it is a polynomial ``F(u)`` of degree ``e`` (its
-    highest exponent).  Points are added until ``_CONFIRMATIONS`` successive
-    new points leave ``F`` unchanged modulo a prime, and primes until one
-    more prime leaves the Chinese remainder lift unchanged.  None when the
-    degree cap ``n + 1`` or the Hadamard-type prime count is reached first
-    (the caller then runs the certified computation).
+    highest exponent).  Modulo the first prime (below 2^62), points are added
+    until ``_CONFIRMATIONS`` successive new points leave ``F`` unchanged;
+    further primes take ``e + 1`` points each, until the Chinese remainder
+    lift agrees with rho_1 at two points modulo a prime not used yet.  None
+    when the degree cap ``n + 1`` or a prime count beyond the Hadamard-type
+    bound is reached first (the caller then runs the certified computation).
     """
-    from .elimination import primes_below_2_31
-
     n = len(lk.crossings)
     cap = n + 1 + _CONFIRMATIONS + 1
     bound = _coefficient_bound(lk)
+    limit = 4 * bound * 4 ** (n + 2) + 1
     residues: list[list[int]] = []
     primes: list[int] = []
-    previous = None
+    degree = None
     for count in range(1, 10_000):
-        p = primes_below_2_31(count)[-1]
+        p = _primes_below_2_62(count)[-1]
         us: list[int] = []
         newton: list[int] = []
         quiet = 0
         points = _point_sequence(p)
-        while quiet < _CONFIRMATIONS:
+        while (quiet < _CONFIRMATIONS) if degree is None else (len(us) < degree + 1):
             if len(us) >= cap:
                 return None
             x = next(points)
@@ -675,17 +690,15 @@ def _early_terminated(lk: LongKnot, plan: _Plan) -> Laurent | None:
             us.append(u)
             newton.append(v)
             quiet = quiet + 1 if v == 0 else 0
-        keep = len(newton) - _CONFIRMATIONS
-        residues.append(_newton_to_monomial(us[:keep], newton[:keep], p))
+        if degree is None:
+            degree = len(newton) - _CONFIRMATIONS - 1
+        residues.append(_newton_to_monomial(us[:degree + 1], newton[:degree + 1], p))
         primes.append(p)
         width = max(len(r) for r in residues)
         lifted = _crt([r + [0] * (width - len(r)) for r in residues], primes)
-        while lifted and lifted[-1] == 0:
-            lifted.pop()
-        if lifted == previous:
+        if _agrees_elsewhere(lifted, plan, _primes_below_2_62(count + 1)[-1]):
             break
-        previous = lifted
-        if math.prod(primes) > 4 * bound * 4 ** (n + 2) + 1:
+        if math.prod(primes) > limit:
             return None
     rho = Laurent.constant(0)
     u_poly = Laurent({-1: 1, 1: 1})
@@ -695,6 +708,25 @@ def _early_terminated(lk: LongKnot, plan: _Plan) -> Laurent | None:
             rho = rho + power * c
         power = power * u_poly
     return rho
+
+
+def _agrees_elsewhere(coefficients: list[int], plan: _Plan, p: int) -> bool:
+    """Whether F(x + 1/x) = rho_1(x) modulo ``p`` at two pseudo-random points."""
+    checked = 0
+    points = _point_sequence(p)
+    while checked < 2:
+        x = next(points)
+        got = plan.evaluate(x, p)
+        if got is None:
+            continue
+        u = (x + pow(x, -1, p)) % p
+        value = 0
+        for c in reversed(coefficients):
+            value = (value * u + c) % p
+        if value != got[1]:
+            return False
+        checked += 1
+    return True
 
 
 def _newton_to_monomial(points: list[int], newton: list[int], p: int) -> list[int]:
@@ -764,12 +796,13 @@ def perturbed_alexander(diagram: Diagram, outer_face: int | None = None,
     the Chinese remainder theorem.  ``O(n^4)`` and proven exact.
 
     *Early termination*: rho_1 is interpolated as a polynomial in
-    ``T + 1/T`` at pseudo-random points until three new points change
-    nothing, and primes are added until one more prime changes nothing.  A
-    wrong stop needs a non-zero polynomial of degree at most ``2n + 2`` to
-    vanish at three pseudo-random points of a field of size about 2^31
-    (probability below ``(2n/2^31)^3``) or a lift to survive a new prime; it
-    costs ``O(e n^3)`` for rho_1 of degree ``e``.  The identities
+    ``T + 1/T`` at pseudo-random points modulo primes below 2^62 until three
+    new points change nothing, and primes are added until the lift agrees
+    with rho_1 at two points modulo a further prime.  A wrong stop needs a
+    non-zero polynomial of degree at most ``2n + 2`` to vanish at three
+    pseudo-random points of a field of size about 2^62 and the lift to pass
+    the final check (probability far below ``(2n/2^62)^3``); it costs
+    ``O(e n^3)`` for rho_1 of degree ``e``.  The identities
     Delta(1) = 1 and rho_1(1/T) = rho_1(T) are checked on certified results.
 
     References
