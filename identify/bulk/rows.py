@@ -42,6 +42,8 @@ COLUMNS: tuple[tuple[str, str, str], ...] = (
     ("alexander", "text", "Alexander polynomial, canonical text"),
     ("determinant", "int", "determinant"),
     ("signature", "int", "signature (right-handed trefoil -2)"),
+    ("rho_1", "text", "perturbed Alexander invariant rho_1, canonical text (knots)"),
+    ("homology", "text", "homology of the double branched cover, e.g. Z/3+Z/3"),
     ("resolutions", "text", "JSON distribution over uncertain crossings (codes)"),
     ("closure_spectrum", "text", "JSON [{type, count, fraction}] over closures (open chains)"),
     ("core_start", "int", "first bead of the knotted core (with --core)"),
@@ -126,6 +128,8 @@ def row_from_result(row: dict, result) -> dict:
     row["alexander"] = inv.get("alexander") or None
     row["determinant"] = int(inv["determinant"]) if inv.get("determinant") else None
     row["signature"] = int(inv["signature"]) if inv.get("signature") else None
+    row["rho_1"] = inv.get("rho_1") or None
+    row["homology"] = inv.get("homology") or None
     if result.resolutions:
         row["resolutions"] = json.dumps(result.resolutions, sort_keys=True)
     return row
