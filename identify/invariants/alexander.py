@@ -15,7 +15,7 @@ __all__ = ["alexander_matrix", "alexander_polynomial"]
 # Up to this many crossings the minor is expanded by one FLINT integer
 # determinant (Kronecker substitution); above it, by elimination modulo primes
 # at many points.  The crossover was measured in bench/bench_perturbed_alexander.py.
-SMALL_DIAGRAM = 40
+SMALL_DIAGRAM = 30
 
 Entry = tuple[int, int]  # c0 + c1 t
 
@@ -229,7 +229,7 @@ def alexander_polynomial(diagram: Diagram, method: str | None = None) -> Laurent
         How to expand the minor: fraction-free elimination over Z[t], one
         integer determinant at t = 2^K (FLINT), or elimination modulo primes
         at many points followed by interpolation.  The default takes
-        "kronecker" up to 40 crossings and "modular" above.
+        "kronecker" up to 30 crossings and "modular" above.
 
     Returns
     -------

@@ -281,6 +281,21 @@ def integer_determinant(rows: Sequence[Mapping[int, int]], size: int) -> int:
     return _crt_symmetric([int(d) for d in dets], modulus, weights)
 
 
+def _linear_bound_squared(rows: Sequence[Mapping[int, tuple[int, int]]], size: int) -> int:
+    """Square of Hadamard's bound on the unit circle for entries ``c0 + c1 t``.
+
+    -1 for the empty matrix (determinant 1), 0 when a row is zero.
+    """
+    if len(rows) != size:
+        raise ValueError(f"expected {size} rows, got {len(rows)}")
+    if size == 0:
+        return -1
+    bound_sq = 1
+    for row in rows:
+        bound_sq *= sum((abs(a) + abs(b)) ** 2 for a, b in row.values())
+    return bound_sq
+
+
 def linear_polynomial_determinant(rows: Sequence[Mapping[int, tuple[int, int]]],
                                   size: int) -> list[int]:
     """The determinant of a sparse square matrix with entries ``c0 + c1 t``.
@@ -315,15 +330,9 @@ def linear_polynomial_determinant(rows: Sequence[Mapping[int, tuple[int, int]]],
     """
     import numpy as np
 
-    if len(rows) != size:
-        raise ValueError(f"expected {size} rows, got {len(rows)}")
-    if size == 0:
-        return [1]
-    bound_sq = 1
-    for row in rows:
-        bound_sq *= sum((abs(a) + abs(b)) ** 2 for a, b in row.values())
-    if bound_sq == 0:
-        return [0] * (size + 1)
+    bound_sq = _linear_bound_squared(rows, size)
+    if bound_sq <= 0:
+        return [1] if size == 0 else [0] * (size + 1)
     primes = _primes_for_bound(bound_sq)
     npr = len(primes)
     npts = size + 1
@@ -379,15 +388,9 @@ def kronecker_polynomial_determinant(rows: Sequence[Mapping[int, tuple[int, int]
     """
     from flint import fmpz_mat
 
-    if len(rows) != size:
-        raise ValueError(f"expected {size} rows, got {len(rows)}")
-    if size == 0:
-        return [1]
-    bound_sq = 1
-    for row in rows:
-        bound_sq *= sum((abs(a) + abs(b)) ** 2 for a, b in row.values())
-    if bound_sq == 0:
-        return [0] * (size + 1)
+    bound_sq = _linear_bound_squared(rows, size)
+    if bound_sq <= 0:
+        return [1] if size == 0 else [0] * (size + 1)
     bits = math.isqrt(bound_sq).bit_length() + 2
     base = 1 << bits
     value = int(fmpz_mat([[a + b * base for a, b in (row.get(c, (0, 0)) for c in range(size))]

@@ -33,6 +33,7 @@ from dataclasses import dataclass
 from ..diagram import Diagram
 from ..errors import InvariantError
 from ..laurent import Laurent
+from .elimination import _permutation_sign
 
 __all__ = [
     "LongKnot",
@@ -281,7 +282,7 @@ class _Plan:
             if u and v:
                 cells.append((u - 1, v - 1, 1))
             self.diagonal.append([(a * n + b, s) for a, b, s in cells])
-        self.sign = _permutation_parity(order_c) * _permutation_parity(order_r)
+        self.sign = _permutation_sign(order_c) * _permutation_sign(order_r)
         self.signs = signs
         self.dexp = [expo[under_out[c]] - expo[over[c]] for c in range(n)]
         count_over = [sum(1 for iv in over if iv >= a) for a in range(size + 1)]
@@ -366,6 +367,7 @@ class _Plan:
         k_lanes = len(xs)
         q1 = qs[:, None]
         xinv = _inverse_mod(xs, qs)
+        inv_1mx = _inverse_mod((1 - xs) % qs, qs)
         spread = self.spread + 1
         pw = np.ones((k_lanes, 2 * spread + 1), dtype=np.int64)
         for k in range(1, spread + 1):
@@ -376,7 +378,10 @@ class _Plan:
         one_minus = (1 - xs_c) % q1
         ok = (one_minus != 0).all(axis=1)
         dexp = np.array(self.dexp, dtype=np.int64)
-        delta = pw[:, spread + dexp] * _inverse_mod(one_minus, q1) % q1
+        # 1 / (1 - x^-1) = -x / (1 - x)
+        inv_om = np.where(signs[None, :] > 0, inv_1mx[:, None],
+                          ((qs - xs) % qs * inv_1mx % qs)[:, None])
+        delta = pw[:, spread + dexp] * inv_om % q1
         scale = np.ones(k_lanes, dtype=np.int64)
         factor = pw[:, spread - dexp] * one_minus % q1
         for c in range(n):
@@ -390,7 +395,10 @@ class _Plan:
         aug = np.zeros((k_lanes, n, 2 * n), dtype=np.int64)
         aug[:, :, :n] = flat.reshape(k_lanes, n, n) % qs[:, None, None]
         aug[:, np.arange(n), n + np.arange(n)] = 1
-        det = np.ones(k_lanes, dtype=np.int64)
+        # division-free Gauss-Jordan: every other row is multiplied by the pivot,
+        # and all divisions wait for one batched inversion at the end
+        sign = np.ones(k_lanes, dtype=np.int64)
+        pivots = np.ones(k_lanes, dtype=np.int64)   # product of pv^(n - 1)
         lanes = np.arange(k_lanes)
         q3 = qs[:, None, None]
         for k in range(n):
@@ -402,18 +410,33 @@ class _Plan:
                 rows_k = aug[lanes, k].copy()
                 aug[lanes, k] = aug[lanes, piv]
                 aug[lanes, piv] = rows_k
-                det = np.where(swap, (qs - det) % qs, det)
-            pv = aug[:, k, k]
-            det = det * pv % qs
-            inv = _inverse_mod(pv, qs)
-            aug[:, k, :] = aug[:, k, :] * inv[:, None] % q1
+                sign = np.where(swap, -sign, sign)
+            pv = np.where(ok, aug[:, k, k], 1)
+            pivot_row = aug[:, k, :].copy()
             f = aug[:, :, k].copy()
-            f[:, k] = 0
-            aug = (aug - f[:, :, None] * aug[:, k, None, :]) % q3
+            aug = (aug * pv[:, None, None] - f[:, :, None] * pivot_row[:, None, :]) % q3
+            aug[:, k, :] = pivot_row
+            for _ in range(n - 1):
+                pivots = pivots * pv % qs
+        diag = np.where(ok[:, None], aug[:, np.arange(n), np.arange(n)], 1)
+        # batched inversion of diag[:, i] and of pivots (one modular power per lane)
+        prefix = np.ones((k_lanes, n + 1), dtype=np.int64)
+        for i in range(n):
+            prefix[:, i + 1] = prefix[:, i] * diag[:, i] % qs
+        total_inv = _inverse_mod(prefix[:, n] * pivots % qs, qs)
+        inv_pivots = total_inv * prefix[:, n] % qs
+        running = total_inv * pivots % qs          # 1 / prod(diag)
+        inv_diag = np.empty((k_lanes, n), dtype=np.int64)
+        for i in range(n - 1, -1, -1):
+            inv_diag[:, i] = running * prefix[:, i] % qs
+            running = running * diag[:, i] % qs
+        det = prefix[:, n] * inv_pivots % qs
+        det = np.where(sign < 0, (qs - det) % qs, det)
         det = det * scale % qs
         if self.sign < 0:
             det = (qs - det) % qs
-        inverse = aug[:, :, n:]
+        det = np.where(ok, det, 0)
+        inverse = aug[:, :, n:] * inv_diag[:, :, None] % q3
         cells = self._cell_arrays()
         t, u, below, e = cells
         inner = np.where((t > 0) & (u > 0), inverse[:, np.maximum(t - 1, 0), np.maximum(u - 1, 0)], 0)
@@ -455,23 +478,6 @@ def _inverse_mod(values, qs):
     primes = np.broadcast_to(qs, values.shape).ravel().tolist()
     flat = [pow(v, -1, q) if v else 0 for v, q in zip(values.ravel().tolist(), primes)]
     return np.array(flat, dtype=np.int64).reshape(values.shape)
-
-
-def _permutation_parity(order: list[int]) -> int:
-    seen = [False] * len(order)
-    sign = 1
-    for start in range(len(order)):
-        if seen[start]:
-            continue
-        length = 0
-        k = start
-        while not seen[k]:
-            seen[k] = True
-            k = order[k]
-            length += 1
-        if length % 2 == 0:
-            sign = -sign
-    return sign
 
 
 def _value_at_dense(lk: LongKnot, x: int, p: int) -> tuple[int, int] | None:
@@ -570,16 +576,10 @@ def _interpolate(points: list[int], values: list[int], p: int) -> list[int]:
 
 def _crt(residues: list[list[int]], primes: list[int]) -> list[int]:
     """Symmetric CRT of coefficient lists, one list per prime."""
-    modulus = math.prod(primes)
-    weights = []
-    for p in primes:
-        rest = modulus // p
-        weights.append(rest * pow(rest % p, -1, p))
-    out = []
-    for column in zip(*residues, strict=True):
-        v = sum(r * w for r, w in zip(column, weights, strict=True)) % modulus
-        out.append(v - modulus if 2 * v > modulus else v)
-    return out
+    from .elimination import _crt_symmetric, _crt_weights
+
+    modulus, weights = _crt_weights(primes)
+    return [_crt_symmetric(list(column), modulus, weights) for column in zip(*residues, strict=True)]
 
 
 # -- public functions -----------------------------------------------------------
