@@ -127,7 +127,7 @@ def test_json_schema():
     assert set(c) >= {"name", "label", "chirality", "agrees", "crossing_number"}
     assert c["chirality"] in ("same", "mirror", "amphichiral", "undetermined")
     assert set(r["invariants"]) == {"components", "jones", "alexander", "determinant",
-                                    "signature", "rho_1", "homology"}
+                                    "signature", "rho_1", "homology", "rho_1_hash"}
     assert r["separation"]["jones"]["count"] >= 1
 
 

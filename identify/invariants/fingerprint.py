@@ -28,6 +28,7 @@ INVARIANTS = {
     "signature": "knot signature; a mirror image has the opposite sign",
     "rho_1": "perturbed Alexander invariant rho_1 (knots); a mirror image has -rho_1",
     "homology": "homology of the double branched cover; blind to mirror images",
+    "rho_1_hash": "rho_1 at two points modulo primes (knots, any size); a mirror image negates it",
 }
 
 
@@ -52,6 +53,10 @@ class Fingerprint:
     homology : tuple of int
         Invariant factors of H_1 of the double branched cover (see
         :func:`knotsift.invariants.double_cover.double_cover_homology`).
+    rho_1_hash : tuple or None
+        rho_1 at the fixed points of
+        :func:`knotsift.invariants.perturbed_alexander.rho_1_hash`, kept only
+        when rho_1 itself was left out (otherwise derived from rho_1).
     """
 
     components: int
@@ -61,12 +66,16 @@ class Fingerprint:
     signature: int
     rho_1: Laurent | None = None
     homology: tuple[int, ...] = ()
+    rho_1_hash: tuple[int | None, ...] | None = None
 
     def mirror(self) -> "Fingerprint":
         """The fingerprint of the mirror image."""
+        from .perturbed_alexander import mirror_hash
+
         return Fingerprint(self.components, self.jones.mirror(), self.alexander,
                            self.determinant, -self.signature,
-                           None if self.rho_1 is None else -self.rho_1, self.homology)
+                           None if self.rho_1 is None else -self.rho_1, self.homology,
+                           None if self.rho_1_hash is None else mirror_hash(self.rho_1_hash))
 
     def is_mirror_blind(self) -> bool:
         """True when these invariants cannot tell this knot from its mirror image."""
@@ -75,7 +84,11 @@ class Fingerprint:
     def texts(self) -> dict[str, str]:
         """Each invariant in canonical text form (rho_1: "" when not computed)."""
         from .double_cover import homology_text
+        from .perturbed_alexander import hash_text, rho_1_hash_of
 
+        hashed = self.rho_1_hash
+        if self.rho_1 is not None:
+            hashed = rho_1_hash_of(self.rho_1, self.alexander)
         return {
             "components": str(self.components),
             "jones": str(self.jones),
@@ -84,6 +97,7 @@ class Fingerprint:
             "signature": str(self.signature),
             "rho_1": "" if self.rho_1 is None else str(self.rho_1),
             "homology": homology_text(self.homology),
+            "rho_1_hash": hash_text(hashed),
         }
 
     def key(self) -> str:
@@ -141,13 +155,13 @@ def fingerprint(diagram: Diagram, simplified: bool = False) -> Fingerprint:
     from .alexander import alexander_polynomial
     from .double_cover import double_cover_homology
     from .jones import jones_polynomial
-    from .perturbed_alexander import perturbed_alexander
+    from .perturbed_alexander import perturbed_alexander, rho_1_hash
     from .signature import knot_signature
 
     d = diagram if simplified else simplify(diagram)
     jones = jones_polynomial(d)
     components = d.number_of_components()
-    alexander = rho = None
+    alexander = rho = hashed = None
     if components == 1:
         if d.number_of_crossings() <= RHO_1_UP_TO:
             # Delta comes from the same matrix as rho_1 (and equals alexander_polynomial)
@@ -155,6 +169,7 @@ def fingerprint(diagram: Diagram, simplified: bool = False) -> Fingerprint:
             alexander, rho = both.alexander, both.rho_1
         else:
             alexander = alexander_polynomial(d)
+            hashed = rho_1_hash(d)
     if alexander is not None:
         det = abs(alexander.evaluate(-1))
     else:
@@ -162,4 +177,4 @@ def fingerprint(diagram: Diagram, simplified: bool = False) -> Fingerprint:
 
         det = determinant(d)
     return Fingerprint(components, jones, alexander, det, knot_signature(d), rho,
-                       double_cover_homology(d))
+                       double_cover_homology(d), hashed)

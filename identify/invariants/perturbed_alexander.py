@@ -42,6 +42,9 @@ __all__ = [
     "perturbed_alexander",
     "rho_1",
     "rho_1_hash",
+    "rho_1_hash_of",
+    "hash_text",
+    "mirror_hash",
     "HASH_POINTS",
 ]
 
@@ -878,6 +881,7 @@ def rho_1_hash(diagram: Diagram, points: int = 2) -> tuple[int | None, ...]:
     Notes
     -----
     One ``n x n`` inverse modulo a prime below 2^31 per point: ``O(n^3)``.
+    :func:`rho_1_hash_of` gives the same values from exact polynomials.
     """
     _check_knot(diagram)
     if not 1 <= points <= len(HASH_POINTS):
@@ -892,6 +896,46 @@ def rho_1_hash(diagram: Diagram, points: int = 2) -> tuple[int | None, ...]:
     return tuple(out)
 
 
+
+def rho_1_hash_of(rho: Laurent, delta: Laurent, points: int = 2) -> tuple[int | None, ...]:
+    """The value :func:`rho_1_hash` gives, from an exact rho_1 and Alexander polynomial.
+
+    Examples
+    --------
+    >>> trefoil = Diagram([(1, 5, 2, 4), (3, 1, 4, 6), (5, 3, 6, 2)])
+    >>> both = perturbed_alexander(trefoil)
+    >>> rho_1_hash_of(both.rho_1, both.alexander) == rho_1_hash(trefoil)
+    True
+    """
+    out: list[int | None] = []
+    for p, x in HASH_POINTS[:points]:
+        if _laurent_mod(delta, x, p) == 0:
+            out.append(None)
+        else:
+            out.append(_laurent_mod(rho, x, p))
+    return tuple(out)
+
+
+def _laurent_mod(poly: Laurent, x: int, p: int) -> int:
+    xinv = pow(x, -1, p)
+    total = 0
+    for e, c in poly.terms():
+        k = int(e)
+        total += c * (pow(x, k, p) if k >= 0 else pow(xinv, -k, p))
+    return total % p
+
+
+def hash_text(values: tuple[int | None, ...] | None) -> str:
+    """Canonical text of a hash: the values joined by commas, "-" where undefined."""
+    if values is None:
+        return ""
+    return ",".join("-" if v is None else str(v) for v in values)
+
+
+def mirror_hash(values: tuple[int | None, ...]) -> tuple[int | None, ...]:
+    """The hash of the mirror image (rho_1 changes sign)."""
+    return tuple(None if v is None else (p - v) % p
+                 for v, (p, _) in zip(values, HASH_POINTS, strict=False))
 
 
 def _hash_points() -> tuple[tuple[int, int], ...]:

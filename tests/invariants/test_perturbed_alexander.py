@@ -211,3 +211,21 @@ def test_rho_1_figure_eight_and_trefoil_pd():
     """PD codes from the shared test knots give the values of their braid closures."""
     assert rho_1(FIGURE_EIGHT) == Laurent.constant(0)
     assert rho_1(TREFOIL) == rho_1(braid_closure([1, 1, 1]))
+
+
+def test_fingerprint_beyond_rho_1_limit_keeps_the_hash():
+    """Above the exact limit the fingerprint keeps rho_1's hash, equal to the exact one's."""
+    from knotsift.identification import identify_diagram
+    from knotsift.invariants.fingerprint import RHO_1_UP_TO
+    from knotsift.invariants.perturbed_alexander import hash_text, rho_1_hash_of
+    from knotsift.simplify import simplify
+
+    d = simplify(braid_closure([1, 2] * 31))  # the torus knot T(3, 31), 62 crossings
+    assert d.number_of_crossings() > RHO_1_UP_TO
+    fp = fingerprint(d, simplified=True)
+    assert fp.rho_1 is None
+    exact = perturbed_alexander(d, certified=False)
+    assert fp.texts()["rho_1_hash"] == hash_text(rho_1_hash_of(exact.rho_1, exact.alexander))
+    assert fp.mirror().texts()["rho_1_hash"] == fingerprint(d.mirror(), True).texts()["rho_1_hash"]
+    notes = identify_diagram(d).notes
+    assert any("rho_1 was not computed" in n for n in notes)
