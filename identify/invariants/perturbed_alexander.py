@@ -587,7 +587,7 @@ def _crt(residues: list[list[int]], primes: list[int]) -> list[int]:
 
 # -- public functions -----------------------------------------------------------
 #: Up to this many crossings the default is the certified computation.
-CERTIFIED_UP_TO = 30
+CERTIFIED_UP_TO = 16
 #: New points (and one new prime) that must leave the interpolant unchanged.
 _CONFIRMATIONS = 3
 
