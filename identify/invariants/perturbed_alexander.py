@@ -401,7 +401,7 @@ class _Plan:
         # division-free Gauss-Jordan: every other row is multiplied by the pivot,
         # and all divisions wait for one batched inversion at the end
         sign = np.ones(k_lanes, dtype=np.int64)
-        pivots = np.ones(k_lanes, dtype=np.int64)   # product of pv^(n - 1)
+        pivot_product = np.ones(k_lanes, dtype=np.int64)
         lanes = np.arange(k_lanes)
         q3 = qs[:, None, None]
         for k in range(n):
@@ -419,8 +419,15 @@ class _Plan:
             f = aug[:, :, k].copy()
             aug = (aug * pv[:, None, None] - f[:, :, None] * pivot_row[:, None, :]) % q3
             aug[:, k, :] = pivot_row
-            for _ in range(n - 1):
-                pivots = pivots * pv % qs
+            pivot_product = pivot_product * pv % qs
+        # every other row was multiplied by each pivot: (prod pv)^(n - 1) in all
+        pivots = np.ones(k_lanes, dtype=np.int64)
+        base, e = pivot_product, n - 1
+        while e:
+            if e & 1:
+                pivots = pivots * base % qs
+            base = base * base % qs
+            e >>= 1
         diag = np.where(ok[:, None], aug[:, np.arange(n), np.arange(n)], 1)
         # batched inversion of diag[:, i] and of pivots (one modular power per lane)
         prefix = np.ones((k_lanes, n + 1), dtype=np.int64)
