@@ -538,19 +538,13 @@ def _coefficient_bound(lk: LongKnot) -> int:
     circle.
     """
     size = lk.size
-    rows: list[dict[int, dict[int, int]]] = [dict() for _ in range(size)]
-
-    def add(r: int, c: int, exponent: int, coeff: int) -> None:
-        entry = rows[r].setdefault(c, {})
-        entry[exponent] = entry.get(exponent, 0) + coeff
-
-    for k in range(size):
-        add(k, k, 0, 1)
+    rows: list[dict[int, dict[int, int]]] = [{k: {0: 1}} for k in range(size)]
     for s, i, j in lk.crossings:
-        add(i - 1, i, s, -1)
-        add(i - 1, j, 0, -1)
-        add(i - 1, j, s, 1)
-        add(j - 1, j, 0, -1)
+        over, under = rows[i - 1], rows[j - 1]
+        for row, col, exponent, coeff in ((over, i, s, -1), (over, j, 0, -1), (over, j, s, 1),
+                                          (under, j, 0, -1)):
+            entry = row.setdefault(col, {})
+            entry[exponent] = entry.get(exponent, 0) + coeff
     h2 = 1
     for row in rows:
         h2 *= max(1, sum(sum(abs(v) for v in entry.values()) ** 2 for entry in row.values()))
