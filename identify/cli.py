@@ -1,8 +1,10 @@
 """The ``knotsift`` command: thin wrappers, each calling one library function.
 
 Exit codes: 0 success; 1 some inputs could not be read (their errors are
-reported, the rest is processed); 2 usage error; 3 the reference table is
-missing or unreadable.
+reported, the rest is processed), or a name given to ``show`` is not in the
+table; 2 usage error; 3 the reference table is missing or unreadable; 141
+standard output was closed early (``knotsift ... | head``): the command stops
+quietly, as a process ended by SIGPIPE would.
 """
 
 from __future__ import annotations
@@ -105,25 +107,36 @@ def _cmd_identify(args) -> int:
 
 
 def _cmd_show(args) -> int:
-    from .entry import describe_entry
-    from .names import find_name
+    from .entry import describe_entry, entry_text
+    from .names import resolve_name
     from .table import open_table
 
     table = open_table(args.table)
-    matches = find_name(args.name, table)
-    if not matches:
-        print(f"knotsift show: no table entry resembles {args.name!r}", file=sys.stderr)
+    found = resolve_name(args.name, table)
+    best = found.match
+    if best is None:
+        hint = ""
+        if found.suggestions:
+            hint = "; did you mean: " + ", ".join(
+                f"{m.name} ({m.how})" for m in found.suggestions) + "?"
+        if args.json:
+            json.dump({"query": args.name, "found": False, "reason": found.reason,
+                       "did_you_mean": [m.name for m in found.suggestions]}, sys.stdout,
+                      indent=2)
+            print()
+        print(f"knotsift show: {found.reason}{hint}", file=sys.stderr)
         return 1
-    best = matches[0]
     info = describe_entry(best.name, best.mirrored, table)
-    info["matched_by"] = best.how
-    info["other_matches"] = [m.name for m in matches[1:]]
+    info.update(query=args.name, matched_by=best.how, guess=best.guess,
+                notes=list(found.notes),
+                other_matches=[m.name for m in found.suggestions if m.name != best.name])
+    if best.guess:
+        print(f"knotsift show: no table entry is named {args.name!r}; showing {info['label']} "
+              f"as a guess ({best.how})", file=sys.stderr)
     if args.json:
         json.dump(info, sys.stdout, indent=2)
         print()
     else:
-        from .entry import entry_text
-
         print(entry_text(info))
     return 0
 
@@ -214,14 +227,42 @@ def _parser() -> argparse.ArgumentParser:
     return p
 
 
+#: Exit status after the reader of standard output went away (128 + SIGPIPE, as a shell
+#: reports a process ended by that signal; common practice).
+CLOSED_PIPE_EXIT = 141
+
+
+def _closed_pipe() -> int:
+    """Quiet exit when standard output is a pipe whose reader closed (``knotsift ... | head``).
+
+    Standard output is pointed at the null device so that the interpreter's
+    final flush does not raise again; nothing is printed.
+    """
+    import os
+
+    try:
+        devnull = os.open(os.devnull, os.O_WRONLY)
+        os.dup2(devnull, sys.stdout.fileno())
+    except (OSError, ValueError):
+        pass
+    return CLOSED_PIPE_EXIT
+
+
 def main(argv: list[str] | None = None) -> int:
     """Entry point of the ``knotsift`` command."""
     from .errors import KnotsiftError, TableError
 
     parser = _parser()
-    args = parser.parse_args(argv)
     try:
-        return args.func(args)
+        args = parser.parse_args(argv)  # --help writes to standard output too
+    except BrokenPipeError:
+        return _closed_pipe()
+    try:
+        code = args.func(args)
+        sys.stdout.flush()  # a closed pipe shows here, inside the handler below
+        return code
+    except BrokenPipeError:
+        return _closed_pipe()
     except TableError as exc:
         if args.debug:
             raise
