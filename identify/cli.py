@@ -18,20 +18,32 @@ __all__ = ["main"]
 NOTATION_CHOICES = ("pd", "dt", "gauss", "braid", "conway")
 
 
-def _inputs(args) -> list[tuple[str, str]]:
-    """(label, text) of every input: inline codes, --file, standard input, or the demo."""
+def _inputs(args) -> list[tuple[str, object]]:
+    """(label, text) of every input: inline codes, files, --file, standard input, or the demo.
+
+    An argument naming an existing file is read as a file (:func:`_file_items`);
+    a path-like argument naming no file becomes an error item ("no such
+    file"), a :class:`~knotsift.errors.NotationError` in place of the text.
+    """
     from .errors import NotationError
 
-    items: list[tuple[str, str]] = []
+    items: list[tuple[str, object]] = []
     if args.demo:
         from .demo import demo_path
 
         args.file = [str(demo_path())]
     for k, code in enumerate(args.code or []):
+        label = f"input {k + 1}" if len(args.code) > 1 else "input"
         if code == "-":
             items.extend(_lines(sys.stdin.read().splitlines(), "stdin"))
+        elif _is_file(code):
+            items.extend(_file_items(code))
+        elif _looks_like_path(code):
+            items.append((label, NotationError(
+                f"no such file: {code!r} (the argument looks like a file name; a code "
+                "with a name, such as 'DT: 4 6 2', is never read as one)", value=code)))
         else:
-            items.append((f"input {k + 1}" if len(args.code) > 1 else "input", code))
+            items.append((label, code))
     for path in args.file or []:
         try:
             with open(path, encoding="utf-8") as fh:
@@ -41,6 +53,62 @@ def _inputs(args) -> list[tuple[str, str]]:
     if not items and not sys.stdin.isatty() and not args.code and not args.file:
         items.extend(_lines(sys.stdin.read().splitlines(), "stdin"))
     return items
+
+
+def _is_file(text: str) -> bool:
+    from pathlib import Path
+
+    try:
+        return len(text) < 4096 and "\n" not in text and Path(text).is_file()
+    except (OSError, ValueError):
+        return False
+
+
+def _looks_like_path(text: str) -> bool:
+    """A path separator, or a name ending in a suffix such as ``.json`` or ``.xyz``.
+
+    No notation uses letters after a dot (Conway's ``.2.20`` has digits), so
+    a suffix of letters marks a file name.
+    """
+    import re
+
+    s = text.strip()
+    if not s or any(ch.isspace() for ch in s):
+        return False
+    return "/" in s or "\\" in s or re.fullmatch(r"[^.]+(\.[^.]+)*\.[A-Za-z][A-Za-z0-9]{0,7}",
+                                                  s) is not None
+
+
+def _file_items(path: str) -> list[tuple[str, object]]:
+    """The codes of an existing file named as an argument.
+
+    ``.json``: a PD code (a list of 4-lists), any one code as a JSON list, or
+    a list of code strings.  Other files: one code per line, as ``--file``.
+    Coordinate files are routed to the 3D path before this is reached.
+    """
+    from .errors import NotationError
+
+    try:
+        with open(path, encoding="utf-8") as fh:
+            text = fh.read()
+    except (OSError, UnicodeDecodeError) as exc:
+        reason = getattr(exc, "strerror", None) or "not a text file"
+        return [(path, NotationError(f"cannot read {path}: {reason}", value=path))]
+    if path.lower().endswith(".json"):
+        import json as _json
+
+        try:
+            data = _json.loads(text)  # parsed as data, never evaluated
+        except ValueError as exc:
+            return [(path, NotationError(f"{path}: not valid JSON ({exc})", value=path))]
+        if isinstance(data, list) and data and all(isinstance(x, str) for x in data):
+            return [(f"{path}, item {k + 1}", x) for k, x in enumerate(data)]
+        if isinstance(data, list):
+            return [(path, _json.dumps(data))]
+        return [(path, NotationError(f"{path}: expected a JSON list (a PD code such as "
+                                     "[[1,5,2,4],[3,1,4,6],[5,3,6,2]], or a list of codes), "
+                                     f"found a JSON {type(data).__name__}", value=path))]
+    return _lines(text.splitlines(), path)
 
 
 def _lines(lines: list[str], where: str) -> list[tuple[str, str]]:
@@ -77,6 +145,8 @@ def _cmd_identify(args) -> int:
     results = []
     for label, text in items:
         try:
+            if isinstance(text, KnotsiftError):
+                raise text
             r = identify(text, args.notation, table=table, neighbours=args.neighbours,
                          label=label)
         except KnotsiftError as exc:

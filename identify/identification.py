@@ -253,7 +253,7 @@ def identify(source, notation: str | None = None, *, table: ReferenceTable | Non
     table = table or open_table()
     if isinstance(source, Diagram):
         return identify_diagram(source, table, neighbours, label, "diagram")
-    from .notations.detect import detect_notation, parse_any_with_uncertain
+    from .notations.detect import detect_notation, parse_any_with_uncertain, reading_of
 
     used = notation or detect_notation(source)
     diagram, uncertain = parse_any_with_uncertain(source, used)
@@ -262,6 +262,9 @@ def identify(source, notation: str | None = None, *, table: ReferenceTable | Non
                            f"(2^{MAX_UNCERTAIN} resolutions), got {len(uncertain)}",
                            value=len(uncertain))
     result = identify_diagram(diagram, table, neighbours, label, used)
+    result.notation_how, unsure = reading_of(source, notation, used)
+    if unsure:
+        result.notes.insert(0, unsure)
     if uncertain:
         as_drawn = _short(result.candidates, result.invariants["jones"])
         result.resolutions, resolved = _resolutions(diagram, uncertain, table)

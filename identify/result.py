@@ -15,6 +15,16 @@ STATUSES = ("identified", "ambiguous", "not in table", "error")
 CHIRALITIES = ("same", "mirror", "amphichiral", "undetermined")
 
 
+def _notation_words(notation: str, how: str) -> str:
+    """'DT code (detected)', 'braid word (named in the text)', '3D coordinates'."""
+    names = {"pd": "PD code", "dt": "DT code", "gauss": "Gauss code", "braid": "braid word",
+             "conway": "Conway notation", "diagram": "a diagram object"}
+    shown = names.get(notation, notation)
+    why = {"detected": "detected", "named": "named in the text",
+           "given": "as requested"}.get(how)
+    return f"{shown} ({why})" if why else shown
+
+
 @dataclass
 class Candidate:
     """One table knot consistent with the input."""
@@ -50,6 +60,7 @@ class IdentifyResult:
     notes: list[str] = field(default_factory=list)
     source: str = ""
     notation: str = ""
+    notation_how: str = ""
     crossings_input: int | None = None
     crossings_simplified: int | None = None
     resolutions: list[dict] | None = None
@@ -69,6 +80,7 @@ class IdentifyResult:
             "schema_version": JSON_SCHEMA_VERSION,
             "source": self.source,
             "notation": self.notation,
+            "notation_how": self.notation_how,
             "status": self.status,
             "name": self.name,
             "candidates": [c.to_dict() for c in self.candidates],
@@ -106,6 +118,8 @@ class IdentifyResult:
             lines.append(f"{head}ambiguous: {names}")
         else:
             lines.append(f"{head}not in the table")
+        if self.notation:
+            lines.append(f"  read as: {_notation_words(self.notation, self.notation_how)}")
         if self.crossings_input is not None:
             lines.append(f"  crossings: {self.crossings_input} in the input, "
                          f"{self.crossings_simplified} after simplification")
