@@ -36,9 +36,13 @@ class Candidate:
     crossing_number: int
     kind: str
     aliases: list[str] = field(default_factory=list)
+    #: What the verdict rests on: "invariants" (a match: evidence), or for the
+    #: unknot "trivial diagram" (the diagram simplified to no crossings: proof).
+    basis: str = "invariants"
 
     def to_dict(self) -> dict:
         return {
+            "basis": self.basis,
             "name": self.name,
             "label": self.label,
             "chirality": self.chirality,
@@ -66,6 +70,8 @@ class IdentifyResult:
     resolutions: list[dict] | None = None
     neighbours: list[dict] | None = None
     error: str | None = None
+    #: What the resolutions range over, for the text report.
+    resolved_over: str = "the uncertain crossings"
 
     @property
     def name(self) -> str | None:
@@ -108,10 +114,14 @@ class IdentifyResult:
             }[c.chirality]
             alias = f" ({', '.join(c.aliases)})" if c.aliases else ""
             shown = c.label if c.chirality in ("same", "mirror") else c.name
+            if c.name == "0_1":
+                chir = {"trivial diagram": "proven, the diagram simplifies to no crossings",
+                        "invariants": "by its invariants only (evidence, not proof)"}.get(
+                            c.basis, chir)
             lines.append(f"{head}{shown}{alias}: {chir}")
         elif self.status == "ambiguous" and self.resolutions:
             shown = ", ".join(f"{r['result']} ({r['fraction']:.0%})" for r in self.resolutions)
-            lines.append(f"{head}ambiguous over the uncertain crossings: {shown}")
+            lines.append(f"{head}ambiguous over {self.resolved_over}: {shown}")
         elif self.status == "ambiguous":
             names = ", ".join(c.label if c.chirality in ("same", "mirror") else c.name
                               for c in self.candidates)
@@ -132,7 +142,7 @@ class IdentifyResult:
                     if sep else ""
                 lines.append(f"  {label:<11} {self.invariants[key]}{share}")
         if self.resolutions:
-            lines.append("  resolutions of the uncertain crossings:")
+            lines.append(f"  resolutions of {self.resolved_over}:")
             for r in self.resolutions:
                 lines.append(f"    {r['fraction']:6.1%}  {r['result']}  ({r['count']} of "
                              f"{r['total']})")

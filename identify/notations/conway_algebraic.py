@@ -117,7 +117,8 @@ from ..tangle import (
     tangle_from_fraction,
 )
 
-__all__ = ["parse_conway_notation", "conway_tangle", "conway_vertex_tangles"]
+__all__ = ["parse_conway_notation", "conway_tangle", "conway_vertex_tangles",
+           "rational_chain"]
 
 _MINUS = "-\u2212"
 _SYMBOLS = {"(": "(", ")": ")", ",": ",", ".": ".", ":": ":", "*": "*", "+": "+"}
@@ -390,6 +391,33 @@ def _vertex_tangles(name: str, slots: list[_Slot | None], seps: list[tuple[str, 
                                 f"{sep!r} starts a tangle for vertex {len(out)}", value=text,
                                 where=f"position {pos + 1}")
     return out
+
+
+def rational_chain(text: str) -> list[int] | None:
+    """The continued-fraction entries of a notation that is one rational chain, else None.
+
+    ``"2312"``, ``"2 3 1 2"``, ``"-2 3"`` and ``"(-2) 3"`` are chains (their
+    knots are 2-bridge); ``"3,3,2"``, ``".2.20"`` and ``"8*"`` are not.  The
+    entries are those the diagram of :func:`parse_conway_notation` is built
+    from, so the fraction ``an + 1/(... + 1/a1)`` is that knot's.
+
+    Raises
+    ------
+    NotationError
+        On malformed notation.
+
+    Examples
+    --------
+    >>> rational_chain("2312"), rational_chain("-2 3"), rational_chain("3,3,2")
+    ([2, 3, 1, 2], [-2, 3], None)
+    """
+    if not isinstance(text, str):
+        raise NotationError(f"Conway notation: expected text, got {type(text).__name__}",
+                            value=text)
+    name, slots, seps = _Parser(text).notation()
+    if name is not None or seps or slots[0] is None or slots[0].entries is None:
+        return None
+    return list(slots[0].entries)
 
 
 def conway_vertex_tangles(text: str) -> tuple[str, list[Tangle | None]]:
