@@ -26,6 +26,9 @@ MAX_EVALUATIONS = 400
 #: Random closures per subchain while the boundaries are searched: the first
 #: directions of the full set (same seed), so a scouted window is usually confirmed.
 SCOUT_CLOSURES = 9
+#: While scouting, the bisection stops at 1/SCOUT_RESOLUTION of the chain and no
+#: local steps are tried (the confirmation's margin is coarser than both).
+SCOUT_RESOLUTION = 128
 #: Steps (beads) of the local refinement after the bisection.
 LOCAL_STEPS = (1, 4)
 #: The scouted window is confirmed with a margin of 1/CONFIRM_MARGIN of its
@@ -100,12 +103,17 @@ class _Judge:
         return ok
 
 
-def _trim(judge: _Judge, offset: int, n: int) -> tuple[int, int]:
-    """Shrink [0, n-1] (known to carry the type) from both ends: bisection, then local steps."""
+def _trim(judge: _Judge, offset: int, n: int, resolution: int = 1, refine: bool = True
+          ) -> tuple[int, int]:
+    """Shrink [0, n-1] (known to carry the type) from both ends: bisection, then local steps.
+
+    The bisection stops once the boundary is known to ``resolution`` beads
+    (keeping the side that carries the type); ``refine`` adds the local steps.
+    """
     i, j = 0, n - 1
     # largest start that still carries the type
     lo, hi = i, j - MIN_CORE + 2
-    while hi - lo > 1:
+    while hi - lo > resolution:
         m = (lo + hi) // 2
         if judge(offset, m, j):
             lo = m
@@ -114,7 +122,7 @@ def _trim(judge: _Judge, offset: int, n: int) -> tuple[int, int]:
     i = lo
     # smallest end
     lo, hi = i + MIN_CORE - 2, j
-    while hi - lo > 1:
+    while hi - lo > resolution:
         m = (lo + hi) // 2
         if judge(offset, i, m):
             hi = m
@@ -122,7 +130,7 @@ def _trim(judge: _Judge, offset: int, n: int) -> tuple[int, int]:
             lo = m
     j = hi
     # local refinement: the type need not be monotone in the window
-    improved = True
+    improved = refine
     while improved:
         improved = False
         for d in LOCAL_STEPS:
@@ -199,9 +207,10 @@ def knotted_core(x: np.ndarray, closed: bool, target: str, closure: str = "stoch
     (``LOCAL_STEPS``: 1 and 4 beads) at either end and both, until none
     keeps the type.  With stochastic closure this search judges each
     subchain by its first ``SCOUT_CLOSURES`` closures only (a majority of
-    those; the same directions begin the full set), and the window found is
-    then confirmed with all ``n_closures``, with a margin that is widened
-    until the full closure confirms it (:func:`_confirm`).  So the reported
+    those; the same directions begin the full set), bisects only to
+    ``1/SCOUT_RESOLUTION`` of the chain without local steps, and the window
+    found is then confirmed with all ``n_closures``, with a margin that is
+    widened until the full closure confirms it (:func:`_confirm`).  So the reported
     core always carries the type under the full closure, while scouting
     makes each step several times cheaper.  For
     a ring, the ring is cut open at ``RING_CUTS`` equally spaced bonds and
@@ -229,7 +238,10 @@ def knotted_core(x: np.ndarray, closed: bool, target: str, closure: str = "stoch
     for off in offsets:
         if closed and not scout(off, 0, n - 1):
             continue  # this cut (probably) runs through the knot
-        i, j = _trim(scout, off, n)
+        if scout is judge:
+            i, j = _trim(judge, off, n)
+        else:  # the confirmation adds a margin: finer steps than it would be wasted
+            i, j = _trim(scout, off, n, resolution=max(1, n // SCOUT_RESOLUTION), refine=False)
         found = _confirm(judge, off, i, j, n, closed)
         if found is None:
             continue  # under the full closure this cut runs through the knot after all
