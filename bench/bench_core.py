@@ -64,6 +64,15 @@ def bridged_ring(knot: int, tail: int, seed: int) -> tuple[np.ndarray, tuple[int
     return np.concatenate((x, x[-1] + t * (x[0] - x[-1]))), span
 
 
+def verdict(seconds: float, r, span: tuple[int, int]) -> str:
+    """Target met or missed, the type, the core found and where the knot was placed."""
+    c = r.core or {}
+    ok = "meets" if seconds < 5 else "MISSES"
+    return (f"{ok} target < 5 s; {r.name}; core {c.get('start')}..{c.get('end')} "
+            f"({c.get('beads')} beads, {c.get('evaluations')} subchains judged); knot placed "
+            f"at {span[0]}..{span[1]}")
+
+
 def main() -> None:
     ap = argparse.ArgumentParser(description=__doc__.split("\n")[0])
     ap.add_argument("--repeats", type=int, default=3)
@@ -80,12 +89,8 @@ def main() -> None:
                                       args.repeats)
     t_core, c_core, r = median_time(lambda: identify_curve(x, closed=False, localise=True,
                                                            table=table), args.repeats)
-    c = r.core or {}
-    ok = "meets" if t_core < 5 else "MISSES"
     print(f"  {len(x)} beads: without core {t_plain:.2f} s (CPU {c_plain:.2f} s), with core "
-          f"{t_core:.2f} s (CPU {c_core:.2f} s) median ({ok} target < 5 s); {r.name}; core {c.get('start')}..{c.get('end')} "
-          f"({c.get('beads')} beads, {c.get('evaluations')} subchains judged); "
-          f"knot placed at {span[0]}..{span[1]}")
+          f"{t_core:.2f} s (CPU {c_core:.2f} s) median; {verdict(t_core, r, span)}")
 
     if args.compare:
         import knotsift.curves.localisation as loc
@@ -106,12 +111,8 @@ def main() -> None:
     y, span = bridged_ring(300, 280, 8)
     t_ring, c_ring, r = median_time(lambda: identify_curve(y, closed=True, localise=True,
                                                            table=table), args.repeats)
-    c = r.core or {}
-    ok = "meets" if t_ring < 5 else "MISSES"
-    print(f"  {len(y)} beads: {t_ring:.2f} s (CPU {c_ring:.2f} s) median ({ok} target < 5 s); "
-          f"{r.name}; core "
-          f"{c.get('start')}..{c.get('end')} ({c.get('beads')} beads, {c.get('evaluations')} "
-          f"subchains judged); knot placed at {span[0]}..{span[1]}")
+    print(f"  {len(y)} beads: {t_ring:.2f} s (CPU {c_ring:.2f} s) median; "
+          f"{verdict(t_ring, r, span)}")
 
 
 if __name__ == "__main__":

@@ -31,7 +31,6 @@ from __future__ import annotations
 
 import re
 from dataclasses import dataclass, field
-from itertools import permutations
 from math import gcd
 
 from .errors import TableError
@@ -403,7 +402,7 @@ def _fuzzy(text: str, table: ReferenceTable, limit: int
     if out and out[0].score >= GUESS_SCORE and (
             len(out) == 1 or out[0].score - out[1].score >= GUESS_LEAD):
         best = out[0]
-        return NameMatch(best.name, False, f"guess: {best.how}", best.score, True), out
+        return NameMatch(best.name, False, best.how, best.score, True), out
     return None, out
 
 

@@ -103,6 +103,17 @@ class _Judge:
         return ok
 
 
+def _bisect(keeps, lo: int, hi: int, resolution: int) -> tuple[int, int]:
+    """Narrow (lo, hi) to ``resolution``: ``keeps(m)`` true moves lo up to m, false hi down."""
+    while hi - lo > resolution:
+        m = (lo + hi) // 2
+        if keeps(m):
+            lo = m
+        else:
+            hi = m
+    return lo, hi
+
+
 def _trim(judge: _Judge, offset: int, n: int, resolution: int = 1, refine: bool = True
           ) -> tuple[int, int]:
     """Shrink [0, n-1] (known to carry the type) from both ends: bisection, then local steps.
@@ -110,25 +121,9 @@ def _trim(judge: _Judge, offset: int, n: int, resolution: int = 1, refine: bool 
     The bisection stops once the boundary is known to ``resolution`` beads
     (keeping the side that carries the type); ``refine`` adds the local steps.
     """
-    i, j = 0, n - 1
-    # largest start that still carries the type
-    lo, hi = i, j - MIN_CORE + 2
-    while hi - lo > resolution:
-        m = (lo + hi) // 2
-        if judge(offset, m, j):
-            lo = m
-        else:
-            hi = m
-    i = lo
-    # smallest end
-    lo, hi = i + MIN_CORE - 2, j
-    while hi - lo > resolution:
-        m = (lo + hi) // 2
-        if judge(offset, i, m):
-            hi = m
-        else:
-            lo = m
-    j = hi
+    # largest start that still carries the type, then the smallest end
+    i, _ = _bisect(lambda m: judge(offset, m, n - 1), 0, n - MIN_CORE + 1, resolution)
+    _, j = _bisect(lambda m: not judge(offset, i, m), i + MIN_CORE - 2, n - 1, resolution)
     # local refinement: the type need not be monotone in the window
     improved = refine
     while improved:

@@ -273,7 +273,7 @@ class _Parser:
                 return acc
 
     def _run_continues(self, k: int) -> bool:
-        """Whether the token at offset ``k`` continues a spaced run (``3`` or ``-3`` after a space)."""
+        """Whether the token at offset ``k`` continues a spaced run (a spaced ``3`` or ``-3``)."""
         tok = self.peek(k)
         if tok.kind == "num":
             return tok.space_before
