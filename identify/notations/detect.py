@@ -22,6 +22,11 @@
 Text of brackets only is the unknot: ``[]`` as a PD code, ``()`` as a Gauss
 code.  Spaced Conway notation such as ``3 2`` reads as a braid by rule 6d; write
 ``Conway: 3 2`` or pass ``notation="conway"``.
+
+Readings that are not clear-cut (rule 5 for words of letters beyond ``e``,
+rules 6c and 6d) get a note from :func:`detection_note` saying what was
+chosen and how to force another; :func:`reading_of` tells named, given and
+detected notations apart for the result.
 """
 
 from __future__ import annotations
