@@ -5,7 +5,8 @@
 1. Words about chirality are taken off first: ``mirror``, ``mirror image``,
    a trailing ``*``, and the handedness words ``left-handed`` /
    ``right-handed`` / ``positive`` / ``negative`` (see :func:`handed_form`).
-2. An exact name (``7_4``), an alias (``figure eight``, ``T(2,5)``), a digit
+2. An exact name (``7_4``), an alias (``figure eight``, ``T(2,5)``; with or
+   without a leading "the" or a trailing "knot"), a digit
    variant (``7-4``, ``7.4``, ``74``), a torus knot ``T(p,q)`` in any order and
    sign, or a connected sum (``3_1 # 4_1``, summands in any order) is an
    exact match.
@@ -348,8 +349,11 @@ def _exact(text: str, table: ReferenceTable, query: str) -> NameMatch | str | No
     squeezed = re.sub(r"\s*([(),#])\s*", r"\1", text)
     if squeezed in lowered:
         return NameMatch(lowered[squeezed], False, "name")
+    # 'trefoil knot', 'the trefoil' and 'perko' name the aliases 'trefoil' and 'perko knot'
+    bare = re.sub(r"^the\s+", "", text)
+    variants = {text, squeezed, bare, re.sub(r"\s+knot$", "", bare), bare + " knot"}
     for alias, name in pairs:
-        if alias.lower() in (text, squeezed):
+        if alias.lower() in variants:
             return NameMatch(name, False, f"alias {alias!r}")
     torus = _torus(squeezed)
     if torus is not None:

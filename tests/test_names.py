@@ -64,6 +64,9 @@ EXACT = [
     ("3_1 # 3_1*", "3_1#3_1*", False),
     ("3_1*#3_1*", "3_1#3_1", True),
     ("granny knot", "3_1#3_1", False),
+    ("trefoil knot", "3_1", False),  # a trailing "knot" or leading "the" is not a typo
+    ("the stevedore knot", "6_1", False),
+    ("perko", "10_161", False),
 ]
 
 
