@@ -331,7 +331,7 @@ def resolve_name(query: str, table: ReferenceTable, limit: int = 5) -> NameLooku
         if form is None:
             out.reason = why
             return out
-        if mirrored and table.knot(match.name)["amphichiral"] == 0:
+        if match.mirrored and table.knot(match.name)["amphichiral"] == 0:
             out.reason = (f"{query!r} asks for a handedness and a mirror image at once; ask "
                           f"for {match.name} or {match.name}{MIRROR_MARK}")
             return out

@@ -121,6 +121,9 @@ def test_handedness_refused_or_explained(table):
     assert found.match is None and "both signs" in found.reason
     found = resolve_name("left handed figure eight", table)
     assert found.match.name == "4_1" and "amphichiral" in found.notes[0]
+    for both in ("right-handed T(2,-3)", "right-handed 3_1 mirror"):  # contradictory asks
+        found = resolve_name(both, table)
+        assert found.match is None and "at once" in found.reason
 
 
 @pytest.mark.parametrize("query,words", [
