@@ -17,6 +17,7 @@ from typing import Iterable, Iterator
 
 import numpy as np
 
+from ..display import FrameValues
 from ..errors import CurveError, KnotsiftError
 from ..result import IdentifyResult
 from .closure import CLOSURES, DEFAULT_CLOSURES, closure_spectrum
@@ -145,7 +146,7 @@ class CurveResult(IdentifyResult):
 
 
 @dataclass
-class FrameResult:
+class FrameResult(FrameValues):
     """Every chain of one frame, and the linking numbers of its rings.
 
     Attributes

@@ -327,6 +327,12 @@ def _frames(u, ag, plans, notes, src, fmt, sel, errors, user_box, brk
         try:
             ts = next(it)
         except StopIteration:
+            cut = _cut_dcd(u, src) if fmt == "dcd" and (
+                sel.stop is None or sel.stop > len(u.trajectory)) else None
+            if cut is not None:
+                if errors == "raise":
+                    raise cut from None
+                yield FrameFailure(src, len(u.trajectory), cut)
             return
         except Exception as exc:  # noqa: BLE001 - a damaged trajectory, whatever MDAnalysis raises
             text = " ".join(str(exc).split())[:300]
@@ -357,6 +363,29 @@ def _frames(u, ag, plans, notes, src, fmt, sel, errors, user_box, brk
             continue
         first = False
         yield frame
+
+
+def _cut_dcd(u, src: str) -> CurveError | None:
+    """A DCD file whose size is not a whole number of frames ends inside a frame.
+
+    MDAnalysis counts the complete frames and silently leaves out a cut one;
+    the sizes it uses (header, first frame, other frames) tell how many bytes
+    are left over.
+    """
+    f = getattr(u.trajectory, "_file", None)
+    sizes = [getattr(f, name, None) for name in ("_header_size", "_firstframesize",
+                                                 "_framesize")]
+    if f is None or any(not isinstance(s, int) for s in sizes):
+        return None
+    header, first, other = sizes
+    n = len(u.trajectory)
+    whole = header + (first + (n - 1) * other if n else 0)
+    size = Path(src).stat().st_size
+    if size <= whole:
+        return None
+    return CurveError(f"the file ends inside frame {n} (truncated: {size - whole} bytes of a "
+                      f"{other}-byte frame); the {n} complete frames before it were read",
+                      where=f"{src}, frame {n}")
 
 
 def _gaps(frame: Frame, brk: float) -> None:
