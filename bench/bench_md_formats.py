@@ -121,14 +121,20 @@ def main() -> None:
                   f"(target <= 1.20)")
     finally:
         shutil.rmtree(folder, ignore_errors=True)
-    times = []
+    import resource
+
+    times, cpu = [], []
     for _ in range(args.runs):
+        before = resource.getrusage(resource.RUSAGE_CHILDREN)
         t = time.perf_counter()
         subprocess.run([args.knotsift, "identify", "DT: 4 6 2"], check=True,
                        stdout=subprocess.DEVNULL)
         times.append(time.perf_counter() - t)
-    print(f"{args.knotsift} identify 'DT: 4 6 2': median {statistics.median(times):.3f} s over "
-          f"{args.runs} runs (target < 0.3 s)")
+        after = resource.getrusage(resource.RUSAGE_CHILDREN)
+        cpu.append(after.ru_utime + after.ru_stime - before.ru_utime - before.ru_stime)
+    print(f"{args.knotsift} identify 'DT: 4 6 2': median wall {statistics.median(times):.3f} s, "
+          f"median CPU {statistics.median(cpu):.3f} s over {args.runs} runs (target < 0.3 s "
+          f"wall; the CPU time shows the cost apart from waiting on a busy machine)")
 
 
 if __name__ == "__main__":

@@ -56,7 +56,8 @@ class RunReport:
                 "rate": round(self.written / self.seconds, 3) if self.seconds > 0 else None}
 
     def text(self) -> str:
-        counts = ", ".join(f"{self.counts.get(s, 0)} {s}" for s in STATUS_ORDER)
+        counts = ", ".join(f"{self.counts.get(s, 0)} {s}" for s in STATUS_ORDER
+                           if s != "depends on missing segment" or self.counts.get(s))
         rate = f" ({self.written / self.seconds:.1f}/s)" if self.seconds > 0 and self.written \
             else ""
         lines = [f"classified {self.total} items: {counts}",
