@@ -71,7 +71,7 @@ def weigh_gaps(result, chain: Chain, gaps: list[tuple[int, float]],
     cuts = sorted({int(k) for k, _ in gaps})
     bounds = [0] + [k + 1 for k in cuts] + [len(chain.coords)]
     pieces = []
-    for a, b in zip(bounds[:-1], bounds[1:]):
+    for a, b in zip(bounds[:-1], bounds[1:], strict=True):
         if b - a < MIN_BEADS:
             pieces.append({"start": a, "end": b - 1, "beads": b - a, "answer": UNKNOT,
                            "why": "fewer than 4 beads: too short to be knotted"})

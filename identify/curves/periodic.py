@@ -184,4 +184,6 @@ def unwrap_chain(coords: np.ndarray, box, closed: bool, where: str = "",
 
 def _box_text(b: np.ndarray) -> str:
     lengths = " x ".join(f"{v:g}" for v in b[:3])
-    return f"{lengths}" if _rectangular(b) else f"{lengths} (angles {', '.join(f'{v:g}' for v in b[3:])})"
+    if _rectangular(b):
+        return lengths
+    return f"{lengths} (angles {', '.join(f'{v:g}' for v in b[3:])})"

@@ -125,13 +125,13 @@ def test_polymer_melt_per_chain_and_whole_frame(table):
     assert not fr.warnings  # each selection is one path in the bonds
     whole = identify_frame(fr, closure="far", table=table)
     assert [c.name for c in whole.chains] == ["0_1"] * 24
-    for chain, in_frame in list(zip(fr.chains, whole.chains))[:4]:  # per chain, on its own
+    for chain, in_frame in list(zip(fr.chains, whole.chains, strict=True))[:4]:  # per chain, on its own
         alone = identify_curve(chain, closure="far", table=table, box=fr.box)
         assert alone.name == in_frame.name and alone.invariants == in_frame.invariants
 
 
 def test_gsd_bonded_chains_are_unwrapped(table):
-    """MDAnalysisTests GSD (example_bonds.gsd): 49 bonded chains of 10 beads in a 10 x 3.5 x 3.5 box."""
+    """MDAnalysisTests GSD (example_bonds.gsd): 49 bonded chains of 10 beads, box 10 x 3.5 x 3.5."""
     pytest.importorskip("gsd")
     fr = next(iter(read_frames(datafiles.GSD_bonds, frames="0:1")))
     assert len(fr.chains) == 49 and fr.box is not None
