@@ -24,11 +24,14 @@ COORDINATE_SUFFIXES = (".xyz", ".pdb", ".ent", ".npy", ".npz")
 
 def is_coordinate_file(text: str) -> bool:
     """True when ``text`` names an existing file with a coordinate or MD suffix."""
+    p = Path(text)
+    if not p.is_file():  # a code, not a file: decided without importing numpy
+        return False
+    if p.suffix.lower() in COORDINATE_SUFFIXES:
+        return True
     from .universe import md_format_of
 
-    p = Path(text)
-    return (p.suffix.lower() in COORDINATE_SUFFIXES or md_format_of(p) is not None) \
-        and p.is_file()
+    return md_format_of(p) is not None
 
 
 def report_file(path: str, *, format: str | None = None, closed: bool | None = None,
