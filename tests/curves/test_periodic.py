@@ -122,3 +122,14 @@ def test_triclinic_wrapped_trefoil(table):
     frac = np.linalg.solve(m.T, x.T).T
     w = (frac - np.floor(frac)) @ m
     assert identify_curve(w, table=table, box=box).name == "3_1"
+
+
+def test_cli_box_option(tmp_path, capsys):
+    from knotsift.cli import main
+
+    path = tmp_path / "wrapped.xyz"
+    write_xyz(path, [wrapped(trefoil())])
+    assert main(["curve", str(path), "--box", "5", "6", "7", "--brief", "--quiet"]) == 0
+    assert capsys.readouterr().out.splitlines()[0].endswith("chain A\tidentified\t3_1")
+    assert main(["curve", str(path), "--box", "5", "0", "7"]) == 1
+    assert "the box edge lengths must be positive" in capsys.readouterr().err
