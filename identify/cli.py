@@ -154,7 +154,11 @@ def _cmd_identify(args) -> int:
                 raise
             r = IdentifyResult(status="error", error=str(exc), source=label)
         results.append(r)
-        if not args.json:
+        if getattr(args, "brief", False) and not args.json:
+            from .brief import brief_line
+
+            print(brief_line(r))
+        elif not args.json:
             print(r.to_text())
             if len(items) > 1:
                 print()
@@ -165,7 +169,7 @@ def _cmd_identify(args) -> int:
         json.dump({"schema_version": 1, "results": [r.to_dict() for r in results],
                    "summary": summary}, sys.stdout, indent=2)
         print()
-    elif len(results) > 1:
+    elif len(results) > 1 and not getattr(args, "brief", False):
         print("summary: " + ", ".join(f"{v} {k}" for k, v in summary.items() if k != "total")
               + f" of {summary['total']}")
     if summary["error"]:
@@ -260,7 +264,12 @@ def _parser() -> argparse.ArgumentParser:
     q.add_argument("--neighbours", action="store_true",
                    help="also list table knots one crossing change away")
     q.add_argument("--json", action="store_true", help="machine-readable output (see README)")
+    q.add_argument("--brief", action="store_true",
+                   help="one line per item: where, status, answer (tab-separated)")
     q.add_argument("--table", help="use this reference table file instead of the shipped one")
+    from .curves.commands import add_reader_options  # for 3D and MD files given to identify
+
+    add_reader_options(q)
     q.set_defaults(func=_cmd_identify)
 
     s = sub.add_parser("show", help="print a table entry, found by a name typed loosely")

@@ -8,6 +8,8 @@ from __future__ import annotations
 
 from dataclasses import dataclass, field
 
+from .display import ResultValues
+
 __all__ = ["Candidate", "IdentifyResult", "STATUSES", "CHIRALITIES", "JSON_SCHEMA_VERSION"]
 
 JSON_SCHEMA_VERSION = 1
@@ -54,8 +56,12 @@ class Candidate:
 
 
 @dataclass
-class IdentifyResult:
-    """What could be said about one input diagram."""
+class IdentifyResult(ResultValues):
+    """What could be said about one input diagram.
+
+    ``invariant_values`` gives the invariants as values (Laurent, int), and
+    Jupyter shows the result as a small table (see :mod:`knotsift.display`).
+    """
 
     status: str
     candidates: list[Candidate] = field(default_factory=list)
