@@ -304,6 +304,7 @@ class _Plan:
         self.high = max(expo) - min(expo)
         self.spread = max(-self.low, self.high, max((abs(d) for d in self.dexp), default=0))
         self.shift = sum(lk.rotation) + sum(signs)
+        self._base: dict[int, tuple] = {}
 
     def evaluate(self, x: int, p: int) -> tuple[int, int] | None:
         """``(det A(x), rho_1(x))`` modulo ``p``, or None where ``A(x)`` is singular."""
@@ -315,9 +316,16 @@ class _Plan:
         for k in range(1, self.spread + 1):
             powers[k] = powers[k - 1] * x % p
             powers[-k] = powers[-k + 1] * xinv % p
-        flat = [0] * (n * n)
-        for index, c in self.fixed:
-            flat[index] = c % p
+        # the x-independent part of M is built once per prime; each point then
+        # overwrites only the cells its diagonal terms touch
+        cached = self._base.get(p)
+        if cached is None:
+            flat = [0] * (n * n)
+            for index, c in self.fixed:
+                flat[index] = c % p
+            cached = self._base[p] = (nmod_mat(n, n, flat, p), flat)
+        m, flat = cached
+        cells: dict[int, int] = {}
         scale = 1
         for c in range(n):
             xs = x if self.signs[c] > 0 else xinv
@@ -327,8 +335,9 @@ class _Plan:
             delta = powers[self.dexp[c]] * pow(one_minus, -1, p) % p
             scale = scale * powers[-self.dexp[c]] % p * one_minus % p
             for index, s in self.diagonal[c]:
-                flat[index] = (flat[index] + s * delta) % p
-        m = nmod_mat(n, n, flat, p)
+                cells[index] = cells.get(index, flat[index]) + s * delta
+        for index, value in cells.items():
+            m[index // n, index % n] = value % p
         det_m = int(m.det())
         if det_m == 0:
             return None
@@ -942,7 +951,9 @@ def mirror_hash(values: tuple[int | None, ...]) -> tuple[int | None, ...]:
 def _hash_points() -> tuple[tuple[int, int], ...]:
     from .elimination import primes_below_2_31
 
-    return tuple(zip(primes_below_2_31(4), (3, 5, 7, 11)))
+    first, second = primes_below_2_31(2)
+    # two points per prime: the x-independent part of the matrix is built once per prime
+    return ((first, 3), (first, 5), (second, 7), (second, 11))
 
 
 HASH_POINTS = _hash_points()
