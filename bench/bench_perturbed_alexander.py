@@ -13,7 +13,8 @@ Everything is measured in one run, so the ratios are fair on a noisy machine:
    rho_1 and the double-cover homology, Delta from rho_1's matrix, FLINT
    determinants); target: now at most 2x before;
 4. the Alexander polynomial and the determinant, old method and FLINT method,
-   on diagrams of 12 to 200 crossings (outputs compared for equality).
+   on diagrams of 12 to 200 crossings (median of 7 calls; outputs compared
+   for equality).
 
     python bench/bench_perturbed_alexander.py [--big]
 """
@@ -44,6 +45,12 @@ def timed(fn, *args, **kwargs):
     t0 = time.perf_counter()
     value = fn(*args, **kwargs)
     return value, time.perf_counter() - t0
+
+
+def median_timed(fn, *args, repeats: int = 7, **kwargs):
+    """The value and the median time of ``repeats`` calls."""
+    runs = [timed(fn, *args, **kwargs) for _ in range(repeats)]
+    return runs[0][0], statistics.median(t for _, t in runs)
 
 
 def old_determinant(d: Diagram) -> int:
@@ -105,10 +112,10 @@ def part_flint(rng: random.Random) -> None:
     for n, strands in ((12, 3), (30, 4), (40, 4), (60, 5), (100, 6), (200, 5)):
         d = braid_closure(random_knot_braid(rng, strands, n), strands)
         old_method = "bareiss" if n <= 12 else "modular"
-        a_old, ta_old = timed(alexander_polynomial, d, method=old_method)
-        a_new, ta_new = timed(alexander_polynomial, d)
-        d_old, td_old = timed(old_determinant, d)
-        d_new, td_new = timed(determinant, d)
+        a_old, ta_old = median_timed(alexander_polynomial, d, method=old_method)
+        a_new, ta_new = median_timed(alexander_polynomial, d)
+        d_old, td_old = median_timed(old_determinant, d)
+        d_new, td_new = median_timed(determinant, d)
         assert a_old == a_new and d_old == d_new
         print(f"   {d.number_of_crossings():9d}  {ta_old:8.4f}  {ta_new:8.4f}  "
               f"{td_old:7.4f}  {td_new:7.4f}")
