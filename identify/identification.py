@@ -122,7 +122,9 @@ def _chirality_note(fp: Fingerprint, cand: Candidate) -> str:
     if fp.rho_1 is not None and not fp.rho_1.is_zero():
         basis.append("rho_1 is not 0 (a mirror image has -rho_1)")
     if cand.chirality in ("same", "mirror"):
-        return ("chirality from " + " and ".join(basis) + "; relative to the table's "
+        listed = (", ".join(basis[:-1]) + " and " + basis[-1]) if len(basis) > 1 else \
+            "".join(basis) or "the computed invariants"
+        return ("chirality from " + listed + "; relative to the table's "
                 "reference diagram (negative signature, see README)")
     if cand.chirality == "undetermined":
         rho = ("rho_1 was not computed (diagram too large)" if fp.rho_1 is None
