@@ -38,6 +38,7 @@ from knotsift.invariants.goeritz import goeritz_forms  # noqa: E402
 from knotsift.invariants.jones import jones_polynomial  # noqa: E402
 from knotsift.invariants.perturbed_alexander import rho_1, rho_1_hash  # noqa: E402
 from knotsift.invariants.signature import knot_signature  # noqa: E402
+
 from tests.strategies import braid_closure, random_knot_braid  # noqa: E402
 
 
@@ -78,7 +79,8 @@ def part_rho(rng: random.Random, big: bool) -> None:
             value, t_rho = timed(rho_1, d)
             _, t_jones = timed(jones_polynomial, d)
             rows.append((t_rho, t_jones, 0 if value.is_zero() else int(value.max_exponent)))
-            print(f"   {d.number_of_crossings():9d}  {t_rho:7.3f}  {t_jones:7.3f}  {rows[-1][2]:6d}")
+            print(f"   {d.number_of_crossings():9d}  {t_rho:7.3f}  {t_jones:7.3f}  "
+                  f"{rows[-1][2]:6d}")
         print(f"   median at {n}: rho_1 {statistics.median(r[0] for r in rows):.3f} s, "
               f"Jones {statistics.median(r[1] for r in rows):.3f} s")
 

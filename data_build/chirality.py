@@ -55,7 +55,7 @@ def is_reference_chirality(fp: Fingerprint) -> bool | None:
 
 
 def chirality_basis(fp: Fingerprint) -> str:
-    """Which invariants see the chirality: "signature", "jones", "rho_1" joined by "+", or "none"."""
+    """Which invariants see the chirality: "signature", "jones", "rho_1" (joined by "+"), "none"."""
     parts = []
     if fp.signature != 0:
         parts.append("signature")

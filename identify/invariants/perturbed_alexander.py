@@ -251,7 +251,7 @@ class _Plan:
         over = [i - 1 for _, i, _ in lk.crossings]   # I_c: row of the over-edge
         under_out = [j for _, _, j in lk.crossings]  # J_c: index of edge j + 1
         step = [0] * size
-        for s, row in zip(signs, over):
+        for s, row in zip(signs, over, strict=True):
             step[row] = s
         expo = [0] * size
         for a in range(1, size):
@@ -458,7 +458,8 @@ class _Plan:
         inverse = aug[:, :, n:] * inv_diag[:, :, None] % q3
         cells = self._cell_arrays()
         t, u, below, e = cells
-        inner = np.where((t > 0) & (u > 0), inverse[:, np.maximum(t - 1, 0), np.maximum(u - 1, 0)], 0)
+        inner = np.where((t > 0) & (u > 0),
+                         inverse[:, np.maximum(t - 1, 0), np.maximum(u - 1, 0)], 0)
         g = pw[:, spread + e] * ((inner + below) % q1) % q1
         m = len(self.terms)
         half = (qs + 1) // 2
@@ -472,10 +473,11 @@ class _Plan:
         if self.edges:
             kk = g[:, 5 * m:]
             phis = np.array([ph for ph, _ in self.edges], dtype=np.int64)
-            total = (total - (((kk - half[:, None]) % q1) * (phis[None, :] % q1) % q1).sum(axis=1)) % qs
+            weighted = ((kk - half[:, None]) % q1) * (phis[None, :] % q1) % q1
+            total = (total - weighted.sum(axis=1)) % qs
         shift = -self.shift
         fac = pw[:, spread + shift] if abs(shift) <= spread else np.array(
-            [pow(int(x), shift, int(q)) for x, q in zip(xs, qs)], dtype=np.int64)
+            [pow(int(x), shift, int(q)) for x, q in zip(xs, qs, strict=True)], dtype=np.int64)
         rho = fac * det % qs * det % qs * total % qs
         return det, rho, ok & (det != 0)
 
@@ -495,7 +497,8 @@ def _inverse_mod(values, qs):
     import numpy as np
 
     primes = np.broadcast_to(qs, values.shape).ravel().tolist()
-    flat = [pow(v, -1, q) if v else 0 for v, q in zip(values.ravel().tolist(), primes)]
+    flat = [pow(v, -1, q) if v else 0 for v, q in zip(values.ravel().tolist(), primes,
+                                                                  strict=True)]
     return np.array(flat, dtype=np.int64).reshape(values.shape)
 
 
@@ -592,7 +595,8 @@ def _crt(residues: list[list[int]], primes: list[int]) -> list[int]:
     from .elimination import _crt_symmetric, _crt_weights
 
     modulus, weights = _crt_weights(primes)
-    return [_crt_symmetric(list(column), modulus, weights) for column in zip(*residues, strict=True)]
+    return [_crt_symmetric(list(column), modulus, weights)
+            for column in zip(*residues, strict=True)]
 
 
 # -- public functions -----------------------------------------------------------
@@ -635,7 +639,7 @@ def _certified(lk: LongKnot, plan: _Plan) -> tuple[list[int], list[int]]:
         qs = np.repeat(np.array(todo, dtype=np.int64), width)
         det, rho, ok = plan.evaluate_batch(xs, qs)
         for x, q, d, r, good in zip(xs.tolist(), qs.tolist(), det.tolist(), rho.tolist(),
-                                    ok.tolist()):
+                                    ok.tolist(), strict=True):
             if good and len(chosen[q]) < npts:
                 scale = pow(x, e, q) if e >= 0 else pow(pow(x, -1, q), -e, q)
                 chosen[q].append((x, d * pow(x, negatives, q) % q, 2 * scale * r % q))

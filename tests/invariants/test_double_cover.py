@@ -5,7 +5,6 @@ from __future__ import annotations
 import math
 
 import pytest
-
 from knotsift import Diagram
 from knotsift.invariants.determinant import determinant
 from knotsift.invariants.double_cover import (
@@ -15,6 +14,7 @@ from knotsift.invariants.double_cover import (
     parse_homology,
 )
 from knotsift.invariants.goeritz import goeritz_forms
+
 from tests.knots import FIGURE_EIGHT, HOPF, PRIME_KNOTS_TO_7, TREFOIL
 from tests.strategies import braid_closure, continued_fraction, rational_knot
 
@@ -65,7 +65,7 @@ def test_double_cover_homology_connected_sums_not_cyclic(words, expected):
 
 def test_double_cover_homology_matches_sympy_smith_form():
     """FLINT's Smith form of the Goeritz matrix agrees with sympy's on braid closures."""
-    from sympy import Matrix, ZZ
+    from sympy import ZZ, Matrix
     from sympy.matrices.normalforms import smith_normal_form
 
     for word in ([1, 1, 1, 2, -1, 2], [1, 2] * 4, [1, -2, 1, -2, 1, -2], [1, 1, 2, 2, 1, 1, 2, 2]):

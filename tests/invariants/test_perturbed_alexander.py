@@ -8,7 +8,6 @@ import random
 import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
-
 from knotsift import Diagram, InvariantError, Laurent
 from knotsift.invariants.alexander import alexander_polynomial
 from knotsift.invariants.fingerprint import fingerprint
@@ -26,6 +25,7 @@ from knotsift.invariants.perturbed_alexander import (
     rho_1_hash,
 )
 from knotsift.reidemeister import scramble, shuffle_labels
+
 from tests.knots import FIGURE_EIGHT, HOPF, TREFOIL, reversed_diagram
 from tests.strategies import braid_closure, knot_diagrams, random_knot_braid
 
@@ -125,7 +125,7 @@ def _circulations(d: Diagram, walks) -> list[dict[int, int]]:
         if len(set(x)) < 4:
             continue
         for signs in itertools.product((1, -1), repeat=4):
-            delta = dict(zip(x, signs))
+            delta = dict(zip(x, signs, strict=True))
             if all(sum(fw * delta.get(e, 0) for e, fw, _ in seg) == 0 for seg in walks):
                 out.append(delta)
                 break
@@ -186,7 +186,7 @@ def test_rho_1_hash_invariant_and_mirror():
     h = rho_1_hash(d, points=4)
     assert rho_1_hash(shuffle_labels(scramble(d, 5, rng), rng), points=4) == h
     mirrored = rho_1_hash(d.mirror(), points=4)
-    for (p, x), a, b in zip(HASH_POINTS, h, mirrored):
+    for (p, x), a, b in zip(HASH_POINTS, h, mirrored, strict=True):
         assert (a + b) % p == 0
         exact = rho_1(d).evaluate(x)
         assert exact % p == a
