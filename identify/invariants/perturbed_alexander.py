@@ -45,6 +45,7 @@ __all__ = [
     "rho_1_hash_of",
     "hash_text",
     "mirror_hash",
+    "mirror_hash_text",
     "HASH_POINTS",
 ]
 
@@ -950,6 +951,14 @@ def mirror_hash(values: tuple[int | None, ...]) -> tuple[int | None, ...]:
     """The hash of the mirror image (rho_1 changes sign)."""
     return tuple(None if v is None else (p - v) % p
                  for v, (p, _) in zip(values, HASH_POINTS, strict=False))
+
+
+def mirror_hash_text(text: str) -> str:
+    """:func:`hash_text` of the mirror image, from the text itself ("" stays "")."""
+    if not text:
+        return ""
+    values = tuple(None if v == "-" else int(v) for v in text.split(","))
+    return hash_text(mirror_hash(values))
 
 
 def _hash_points() -> tuple[tuple[int, int], ...]:

@@ -229,3 +229,12 @@ def test_fingerprint_beyond_rho_1_limit_keeps_the_hash():
     assert fp.mirror().texts()["rho_1_hash"] == fingerprint(d.mirror(), True).texts()["rho_1_hash"]
     notes = identify_diagram(d).notes
     assert any("rho_1 was not computed" in n for n in notes)
+
+
+def test_mirror_hash_text_matches_the_mirror_diagram():
+    """The text rule for mirror images gives the mirror diagram's hash text."""
+    from knotsift.invariants.perturbed_alexander import hash_text, mirror_hash_text
+
+    d = braid_closure([1, 1, 1, 2, -1, 2])
+    assert mirror_hash_text(hash_text(rho_1_hash(d))) == hash_text(rho_1_hash(d.mirror()))
+    assert mirror_hash_text("") == ""
