@@ -243,8 +243,12 @@ def crossings_along(segs: SegmentSet, found: np.ndarray):
 
 def project(chains: list[tuple[np.ndarray, bool]], rng: np.random.Generator,
             tol: float = PROJECTION_TOL, max_redraws: int = MAX_REDRAWS,
-            where: str = "") -> Projection:
+            where: str = "", directions: int = 1) -> Projection:
     """Project closed chains along a generic random direction and build the PD code.
+
+    With ``directions`` above 1, that many generic directions are drawn and
+    the one whose projection has the fewest crossings is kept (the first of
+    equals), so the choice depends only on the generator's seed.
 
     Parameters
     ----------
@@ -255,8 +259,11 @@ def project(chains: list[tuple[np.ndarray, bool]], rng: np.random.Generator,
     tol : float
         Degeneracy margin (see the module docstring).
     max_redraws : int
+        Degenerate directions rejected (in all) before giving up.
     where : str
         For error messages.
+    directions : int
+        Generic directions compared (fewest crossings wins).
 
     Returns
     -------
@@ -288,21 +295,32 @@ def project(chains: list[tuple[np.ndarray, bool]], rng: np.random.Generator,
         if not closed:
             raise CurveError("only closed chains can be projected to a diagram; close open "
                              "chains first (knotsift.curves.closure)", where=where or None)
+    if isinstance(directions, bool) or not isinstance(directions, int) or directions < 1:
+        raise ValueError(f"directions must be a positive integer, got {directions!r}")
     segs = segment_set(chains)
-    for attempt in range(max_redraws):
+    best = None
+    redraws = 0
+    seen = 0
+    while seen < directions and redraws < max_redraws:
         u = random_direction(rng)
         found = _crossings(segs, u, tol)
         if found is None:
+            redraws += 1
             continue
-        diagram, comps = _pd_code(segs, found, len(chains))
-        return Projection(diagram, u, np.stack(
-            (np.where(found[:, 4] > 0, found[:, 0], found[:, 2]),
-             np.where(found[:, 4] > 0, found[:, 2], found[:, 0])), axis=1).astype(np.int64)
-            if found.size else np.zeros((0, 2), dtype=np.int64),
-            found[:, 5].astype(np.int64), segs.chain, comps, attempt)
-    raise CurveError(f"no generic projection found in {max_redraws} random directions: "
-                     "segments of the curve (nearly) touch, or the curve is degenerate",
-                     where=where or None)
+        seen += 1
+        if best is None or found.shape[0] < best[1].shape[0]:
+            best = (u, found)
+    if best is None:
+        raise CurveError(f"no generic projection found in {max_redraws} random directions: "
+                         "segments of the curve meet, or the curve is degenerate",
+                         where=where or None)
+    u, found = best
+    diagram, comps = _pd_code(segs, found, len(chains))
+    return Projection(diagram, u, np.stack(
+        (np.where(found[:, 4] > 0, found[:, 0], found[:, 2]),
+         np.where(found[:, 4] > 0, found[:, 2], found[:, 0])), axis=1).astype(np.int64)
+        if found.size else np.zeros((0, 2), dtype=np.int64),
+        found[:, 5].astype(np.int64), segs.chain, comps, redraws)
 
 
 def _pd_code(segs: SegmentSet, found: np.ndarray, n_chains: int
