@@ -28,14 +28,9 @@ from __future__ import annotations
 import random
 
 from .diagram import Diagram, join_edges
+from .working_code import WorkingCode, flipped
 
 __all__ = ["simplify", "reduce_nugatory_and_bigons", "remove_nugatory", "remove_bigon"]
-
-
-def _flipped(x: tuple[int, int, int, int], sign: int) -> tuple[int, int, int, int]:
-    """A crossing seen after turning its part of the diagram over (same sign)."""
-    a, b, c, d = x
-    return (d, c, b, a) if sign > 0 else (b, a, d, c)
 
 
 def _face_of_corner(diagram: Diagram) -> dict[tuple[int, int], int]:
@@ -70,7 +65,7 @@ def remove_nugatory(diagram: Diagram) -> Diagram | None:
                     if nj != i and nj not in side:
                         stack.append(nj)
             signs = diagram.signs()
-            new = [(_flipped(y, signs[j]) if j in side else y) for j, y in enumerate(xs)]
+            new = [(flipped(y, signs[j]) if j in side else y) for j, y in enumerate(xs)]
             pairs = [(x[(k + 1) % 4], x[(k + 3) % 4]), (x[(k + 2) % 4], x[k])]
             return join_edges(new, {i}, pairs, diagram.free_loops)
     return None
@@ -101,191 +96,31 @@ def remove_bigon(diagram: Diagram) -> Diagram | None:
     return None
 
 
-class _WorkingCode:
-    """A mutable PD code: crossings by id, the two darts of each label, crossing signs."""
-
-    __slots__ = ("xs", "sign", "where", "loops")
-
-    def __init__(self, diagram: Diagram):
-        self.xs: dict[int, list[int]] = {i: list(x) for i, x in enumerate(diagram.crossings)}
-        self.sign = dict(enumerate(diagram.signs()))
-        self.where: dict[int, list[tuple[int, int]]] = {}
-        for i, x in self.xs.items():
-            for p, e in enumerate(x):
-                self.where.setdefault(e, []).append((i, p))
-        self.loops = diagram.free_loops
-
-    def other(self, i: int, p: int) -> tuple[int, int]:
-        a, b = self.where[self.xs[i][p]]
-        return b if a == (i, p) else a
-
-    def remove(self, drop: set[int], pairs: list[tuple[int, int]]) -> set[int]:
-        """Delete crossings ``drop`` and join the labels in ``pairs``; the crossings touched."""
-        from .partition import Partition
-
-        gone = set()
-        for c in drop:
-            for p, e in enumerate(self.xs[c]):
-                self.where[e].remove((c, p))
-                gone.add(e)
-            del self.xs[c]
-            del self.sign[c]
-        merged = Partition()
-        for u, v in pairs:
-            merged.join(u, v)
-        touched: set[int] = set()
-        for members in merged.classes().values():
-            darts = [d for m in members for d in self.where.pop(m, ())]
-            if not darts:
-                self.loops += 1
-                continue
-            if len(darts) != 2:  # pragma: no cover - a broken move, never expected
-                raise AssertionError(f"joined labels {members} keep {len(darts)} ends")
-            rep = min(members)
-            for c, p in darts:
-                self.xs[c][p] = rep
-                touched.add(c)
-            self.where[rep] = darts
-        for e in gone:
-            if not self.where.get(e, True):
-                del self.where[e]
-        return touched
-
-    def kink_at(self, c: int) -> list[tuple[int, int]] | None:
-        x = self.xs[c]
-        for p in range(4):
-            if x[p] == x[(p + 1) % 4]:
-                return [(x[(p + 2) % 4], x[p]), (x[(p + 3) % 4], x[p])]
-        return None
-
-    def bigon_at(self, c: int) -> tuple[int, list[tuple[int, int]]] | None:
-        x = self.xs[c]
-        for p in range(4):
-            d, q = self.other(c, (p + 1) % 4)
-            if d == c or self.other(d, (q + 1) % 4) != (c, p):
-                continue
-            if (p + 1) % 2 != q % 2:
-                continue  # a clasp, not one strand over the other twice
-            y = self.xs[d]
-            e1, e2 = x[(p + 1) % 4], y[(q + 1) % 4]
-            return d, [(x[(p + 3) % 4], e1), (e1, y[(q + 2) % 4]),
-                       (y[(q + 3) % 4], e2), (e2, x[(p + 2) % 4])]
-        return None
-
-    def has_local_move(self, crossings) -> bool:
-        return any(c in self.xs and (self.kink_at(c) or self.bigon_at(c)) for c in crossings)
-
-    def reduce_locally(self, todo: list[int]) -> None:
-        """Remove kinks and bigons at the crossings in ``todo`` and wherever moves open new ones."""
-        while todo:
-            c = todo.pop()
-            if c not in self.xs:
-                continue
-            pairs = self.kink_at(c)
-            if pairs is not None:
-                todo.extend(self.remove({c}, pairs))
-                continue
-            found = self.bigon_at(c)
-            if found is not None:
-                d, pairs = found
-                todo.extend(self.remove({c, d}, pairs))
-
-    def face_of_corner(self) -> dict[tuple[int, int], int]:
-        out: dict[tuple[int, int], int] = {}
-        f = 0
-        for i in self.xs:
-            for p in range(4):
-                d = (i, p)
-                if d in out:
-                    continue
-                while d not in out:
-                    out[d] = f
-                    d = self.other(d[0], (d[1] + 1) % 4)
-                f += 1
-        return out
-
-    def remove_one_nugatory(self) -> set[int] | None:
-        """Untwist one nugatory crossing (turning one side over); the crossings touched."""
-        if not self.xs:
-            return None
-        face = self.face_of_corner()
-        for i, x in self.xs.items():
-            for k in (0, 1):
-                if face[(i, k)] != face[(i, k + 2)]:
-                    continue
-                side: set[int] = set()
-                stack = [self.other(i, (k + 1) % 4)[0], self.other(i, (k + 2) % 4)[0]]
-                while stack:
-                    j = stack.pop()
-                    if j == i or j in side:
-                        continue
-                    side.add(j)
-                    stack.extend(self.other(j, p)[0] for p in range(4))
-                for j in side:
-                    old = self.xs[j]
-                    for p, e in enumerate(old):
-                        self.where[e].remove((j, p))
-                    new = list(_flipped(tuple(old), self.sign[j]))
-                    self.xs[j] = new
-                    for p, e in enumerate(new):
-                        self.where[e].append((j, p))
-                pairs = [(x[(k + 1) % 4], x[(k + 3) % 4]), (x[(k + 2) % 4], x[k])]
-                return self.remove({i}, pairs)
-        return None
-
-    def diagram(self) -> Diagram:
-        return Diagram([tuple(x) for x in self.xs.values()], self.loops)
-
-
 def reduce_nugatory_and_bigons(diagram: Diagram) -> Diagram:
     """Remove nugatory crossings and Reidemeister II bigons until none is left.
 
-    The moves run on a working copy; the result is validated once.  Edge
+    The moves run on a working code; the result is validated once.  Edge
     labels are those of the input where they survive (not renumbered).
     """
-    work = _WorkingCode(diagram)
-    work.reduce_locally(list(work.xs))
-    while True:
-        touched = work.remove_one_nugatory()
-        if touched is None:
-            break
-        work.reduce_locally(list(touched))
-    return work.diagram()
-
-
-def _r3_openings(diagram: Diagram) -> Diagram | None:
-    """A Reidemeister III move after which a kink or bigon can be removed, or None."""
-    from .reidemeister import apply_r3, r3_triangles
-
-    faces = None
-    for f in r3_triangles(diagram):
-        faces = faces or diagram.faces()
-        face = faces[f]
-        moved = apply_r3(diagram, f)
-        work = _WorkingCode(moved)
-        if work.has_local_move({c for c, _ in face}):
-            return moved
-    return None
+    return _reduce(diagram, 0)
 
 
 def _reduce(diagram: Diagram, effort: int) -> Diagram:
     """R1/R2 to exhaustion, then strand rerouting and R3 openings while they gain."""
-    from .strands import reroute_strand
+    from .strands import reroute_in
 
-    current = reduce_nugatory_and_bigons(diagram)
-    if effort < 1:
-        return current
-    while current.number_of_crossings() > 0:
-        nxt = reroute_strand(current)
-        if nxt is None:
-            nxt = _r3_openings(current)
-        if nxt is None:
+    work = WorkingCode(diagram)
+    work.reduce_locally(list(work.xs))
+    while True:
+        touched = work.remove_one_nugatory()
+        if touched is None and effort >= 1:
+            touched = reroute_in(work)
+            if touched is None:
+                touched = work.r3_opening()
+        if touched is None:
             break
-        nxt = reduce_nugatory_and_bigons(nxt)
-        if nxt.number_of_crossings() > current.number_of_crossings():  # pragma: no cover
-            break
-        current = nxt
-    return current
+        work.reduce_locally(list(touched))
+    return work.diagram()
 
 
 def _random_r3(diagram: Diagram, moves: int, rng: random.Random) -> Diagram:

@@ -6,7 +6,7 @@ diagram, it can be laid down along any path from its start to its end: the
 knot type stays the same (common practice).  Laid along a shortest path in
 the dual graph (faces joined across edges), it crosses as few edges as
 possible; when that is fewer than it crossed before, the diagram shrinks.
-Under-strands are rerouted the same way in the mirror image.
+Under-strands (only passing under) are rerouted the same way.
 
 Removing the strand merges the faces on its two sides, so the search runs
 on the faces of the diagram as it is, where stepping across one of the
@@ -18,57 +18,45 @@ from __future__ import annotations
 
 from collections import deque
 
-from .diagram import Diagram, join_edges
-from .errors import DiagramError
+from .diagram import Diagram
+from .working_code import WorkingCode
 
-__all__ = ["over_strands", "reroute_strand"]
+__all__ = ["strands", "reroute_strand", "reroute_in"]
 
 
-def over_strands(diagram: Diagram) -> list[tuple[int, int, list[int], list[int]]]:
-    """The over-strands: ``(start, end, crossings passed over, edge labels)`` each.
+def strands(work: WorkingCode, over: bool = True) -> list[tuple[tuple[int, int], tuple[int, int],
+                                                              list[int], list[int]]]:
+    """The over-strands (or under-strands) of a working code.
 
-    A strand leaves crossing ``start`` from under (entry 2), passes over the
-    listed crossings and arrives under at ``end`` (entry 0).  The edge labels
-    run along it, one more than the crossings.
+    Each is ``(start dart, end dart, crossings passed, edge labels)``: the
+    strand leaves the start dart's crossing on the other level, passes over
+    (under) the listed crossings and arrives at the end dart on the other
+    level again.  The edge labels run along it, one more than the crossings.
     """
-    xs = diagram.crossings
     out = []
-    for a in range(len(xs)):
-        over: list[int] = []
-        edges = [xs[a][2]]
-        j, q = diagram.other_end(a, 2)
-        while q % 2 == 1:
-            over.append(j)
-            edges.append(xs[j][(q + 2) % 4])
-            j, q = diagram.other_end(j, (q + 2) % 4)
-        out.append((a, j, over, edges))
+    passing = 1 if over else 0
+    for a in list(work.xs):
+        if over:
+            start = (a, 2)
+        else:
+            start = (a, 1) if work.sign[a] > 0 else (a, 3)
+        passed: list[int] = []
+        edges = [work.xs[a][start[1]]]
+        j, q = work.other(*start)
+        while q % 2 == passing and j not in passed:
+            passed.append(j)
+            edges.append(work.xs[j][(q + 2) % 4])
+            j, q = work.other(j, (q + 2) % 4)
+        if q % 2 != passing:
+            out.append((start, (j, q), passed, edges))
     return out
 
 
-def _sides(diagram: Diagram) -> dict[int, tuple[int, int]]:
-    """For each edge label, (face on its right, face on its left) along its direction."""
-    face_of = {}
-    for f, face in enumerate(diagram.faces()):
-        for corner in face:
-            face_of[corner] = f
-    out = {}
-    for i, x in enumerate(diagram.crossings):
-        for p, label in enumerate(x):
-            if not diagram.is_incoming(i, p):  # the edge leaves crossing i here
-                out[label] = (face_of[(i, (p - 1) % 4)], face_of[(i, p)])
-    return out
-
-
-def _path(sides, start: set[int], goal: set[int], free: set[int], limit: int):
+def _path(adjacent, start: set[int], goal: set[int], free: set[int], limit: int):
     """Cheapest face path from ``start`` to ``goal`` costing less than ``limit``.
 
     Returns the edges crossed at cost one, each as ``(label, from_face)``, or None.
     """
-    adjacent: dict[int, list[tuple[int, int]]] = {}
-    for label, (r, l) in sides.items():
-        if r != l:
-            adjacent.setdefault(r, []).append((label, l))
-            adjacent.setdefault(l, []).append((label, r))
     dist = {f: 0 for f in start}
     back: dict[int, tuple[int, int] | None] = {f: None for f in start}
     queue = deque(sorted(start))
@@ -82,9 +70,10 @@ def _path(sides, start: set[int], goal: set[int], free: set[int], limit: int):
                     steps.append((label, g))
                 f = g
             return steps[::-1]
+        df = dist[f]
         for label, g in adjacent.get(f, ()):
             cost = 0 if label in free else 1
-            nd = dist[f] + cost
+            nd = df + cost
             if nd >= limit or nd >= dist.get(g, limit):
                 continue
             dist[g] = nd
@@ -96,46 +85,59 @@ def _path(sides, start: set[int], goal: set[int], free: set[int], limit: int):
     return None
 
 
-def _reroute_over(diagram: Diagram) -> Diagram | None:
-    xs = diagram.crossings
-    strands = [s for s in over_strands(diagram) if s[2]]
-    if not strands:
+def _lay_down(work: WorkingCode, start, end, passed, steps, sides, over: bool) -> set[int]:
+    """Replace the strand by one crossing each edge of ``steps``; the crossings touched."""
+    arc = [work.fresh() for _ in range(len(steps) + 1)]
+    touched = set()
+    for k, (label, from_face) in enumerate(steps):
+        head = next(d for d in work.where[label] if not work.is_outgoing(*d))
+        half = work.fresh()
+        work.relabel_dart(head[0], head[1], half)
+        from_right = from_face == sides[label][0]
+        if over:  # the crossed edge is the under-strand, entries 0 -> 2
+            x = [label, arc[k], half, arc[k + 1]] if from_right else \
+                [label, arc[k + 1], half, arc[k]]
+            sign = -1 if from_right else 1
+        else:  # the strand is the under-strand; the crossed edge runs over it
+            x = [arc[k], half, arc[k + 1], label] if from_right else \
+                [arc[k], label, arc[k + 1], half]
+            sign = 1 if from_right else -1
+        touched.add(work.add(x, sign))
+        touched.add(head[0])
+    work.relabel_dart(start[0], start[1], arc[0])
+    work.relabel_dart(end[0], end[1], arc[-1])
+    touched |= {start[0], end[0]}
+    pairs = [(work.xs[c][0], work.xs[c][2]) if over else (work.xs[c][1], work.xs[c][3])
+             for c in passed]
+    touched |= work.remove(set(passed), pairs)
+    return {c for c in touched if c in work.xs}
+
+
+def reroute_in(work: WorkingCode) -> set[int] | None:
+    """Reroute one strand of the working code where that saves crossings.
+
+    Returns the crossings touched (to look for new kinks and bigons), or
+    None when no strand can be shortened.
+    """
+    if not work.xs:
         return None
-    sides = _sides(diagram)
-    strands.sort(key=lambda s: (-len(s[2]), s[0]))
-    top = max(abs(e) for x in xs for e in x)
-    for a, b, over, edges in strands:
-        if a in over or b in over:
-            continue  # the strand passes over its own end crossing
-        steps = _path(sides, set(sides[edges[0]]), set(sides[edges[-1]]), set(edges),
-                      len(over))
-        if steps is None:
-            continue
-        new = [list(x) for x in xs]
-        heads = {}
-        for i, x in enumerate(xs):
-            for p, label in enumerate(x):
-                if diagram.is_incoming(i, p):
-                    heads[label] = (i, p)
-        arc = list(range(top + 1, top + 2 + len(steps)))
-        nxt = top + 2 + len(steps)
-        added = []
-        for k, (label, from_face) in enumerate(steps):
-            h = heads[label]
-            new[h[0]][h[1]] = nxt  # the head half of the crossed edge
-            right = sides[label][0]
-            if from_face == right:
-                added.append([label, arc[k], nxt, arc[k + 1]])
-            else:
-                added.append([label, arc[k + 1], nxt, arc[k]])
-            nxt += 1
-        new[a][2] = arc[0]
-        new[b][0] = arc[-1]
-        pairs = [(new[c][0], new[c][2]) for c in over]
-        try:
-            return join_edges(new + added, set(over), pairs, diagram.free_loops)
-        except DiagramError:  # pragma: no cover - would be a bug; the move is not made
-            continue
+    face = work.face_of_corner()
+    sides = work.sides(face)
+    adjacent: dict[int, list[tuple[int, int]]] = {}
+    for label, (r, l) in sides.items():
+        if r != l:
+            adjacent.setdefault(r, []).append((label, l))
+            adjacent.setdefault(l, []).append((label, r))
+    for over in (True, False):
+        found = [s for s in strands(work, over) if s[2]]
+        found.sort(key=lambda s: (-len(s[2]), s[0]))
+        for start, end, passed, edges in found:
+            if start[0] in passed or end[0] in passed:
+                continue  # the strand passes over (under) its own end crossing
+            steps = _path(adjacent, set(sides[edges[0]]), set(sides[edges[-1]]), set(edges),
+                          len(passed))
+            if steps is not None:
+                return _lay_down(work, start, end, passed, steps, sides, over)
     return None
 
 
@@ -161,13 +163,10 @@ def reroute_strand(diagram: Diagram) -> Diagram | None:
 
     Notes
     -----
-    O(n) per strand tried; the search stops at the strand's own length, so
-    short strands cost little.
+    O(n) for the faces, then a search per strand tried that stops at the
+    strand's own length, so short strands cost little.
     """
-    if not diagram.crossings:
+    work = WorkingCode(diagram)
+    if reroute_in(work) is None:
         return None
-    found = _reroute_over(diagram)
-    if found is not None:
-        return found
-    found = _reroute_over(diagram.mirror())
-    return None if found is None else found.mirror()
+    return work.diagram()

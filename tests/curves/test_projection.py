@@ -178,3 +178,22 @@ def test_projection_refuses_open_chains():
 
     with pytest.raises(CurveError, match="close open chains"):
         project([(units(figure_eight(50)), False)], np.random.default_rng(0))
+
+
+def test_several_directions_keep_the_fewest_crossings():
+    """With k directions the kept projection has the fewest crossings of the k, same type."""
+    x = units(moved(right_torus_knot(3, 4, 240), np.random.default_rng(8)))
+    singles = []
+    rng = np.random.default_rng(4)
+    for _ in range(5):
+        singles.append(project([(x, True)], rng).diagram)
+    best = project([(x, True)], np.random.default_rng(4), directions=5).diagram
+    assert best.number_of_crossings() == min(d.number_of_crossings() for d in singles)
+    assert fingerprint(best).key() == fingerprint(singles[0]).key()
+    again = project([(x, True)], np.random.default_rng(4), directions=5).diagram
+    assert again == best
+
+
+def test_directions_must_be_positive():
+    with pytest.raises(ValueError, match="directions"):
+        project([(units(figure_eight(50)), True)], np.random.default_rng(0), directions=0)
