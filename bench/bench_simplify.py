@@ -12,6 +12,9 @@ on the same diagram:
   reductions;
 * ``effort 3``: also two rounds of the seeded randomised search.
 
+It also counts the connected-sum factors that the effort-1 diagram displays
+(knotsift.decomposition).
+
 The lower bound is the span of the Jones polynomial (a knot's crossing
 number is at least the span, Kauffman 1987, Murasugi 1987, Thistlethwaite
 1987; from memory), computed only for diagrams of at most ``--jones-max``
@@ -37,6 +40,7 @@ from random_polygons import random_polygon  # noqa: E402
 from knotsift.curves.frame import Chain, prepare_chains  # noqa: E402
 from knotsift.curves.kmt import kmt_reduce  # noqa: E402
 from knotsift.curves.projection import project  # noqa: E402
+from knotsift.decomposition import connected_sum_factors  # noqa: E402
 from knotsift.diagram import Diagram  # noqa: E402
 from knotsift.simplify import remove_bigon, remove_nugatory, simplify  # noqa: E402
 
@@ -90,6 +94,7 @@ def main() -> None:
             e0, t0 = timed(simplify, d, effort=0)
             e1, t1 = timed(simplify, d, effort=1)
             e3, t3 = timed(simplify, d, effort=3, seed=k)
+            factors, t_f = timed(connected_sum_factors, e1)
             same &= old.number_of_crossings() == e0.number_of_crossings()
             bound = None
             if e3.number_of_crossings() <= args.jones_max:
@@ -99,7 +104,8 @@ def main() -> None:
                 bound = int(v.span()) if e3.is_knot() else None
             rows.append((d.number_of_crossings(), old.number_of_crossings(),
                          e0.number_of_crossings(), e1.number_of_crossings(),
-                         e3.number_of_crossings(), bound, t_old, t0, t1, t3))
+                         e3.number_of_crossings(), bound, t_old, t0, t1, t3,
+                         len(factors), t_f))
         med = [statistics.median(r[c] for r in rows) for c in range(5)]
         bounds = [r[5] for r in rows if r[5] is not None]
         times = [statistics.median(r[c] for r in rows) for c in range(6, 10)]
@@ -107,6 +113,8 @@ def main() -> None:
         print(f"{n:6d} {med[0]:9.0f} {med[1]:7.0f} {med[2]:6.0f} {med[3]:6.0f} {med[4]:6.0f} {b} "
               f"{times[0]:9.3f} {times[1]:8.3f} {times[2]:8.3f} {times[3]:8.3f}"
               f"   bound on {len(bounds)}/{len(rows)}; effort-0 counts and Jones agree: {same}")
+        print(f"{'':6} factors displayed after effort 1: median {statistics.median(r[10] for r in rows):.0f}, "
+              f"max {max(r[10] for r in rows)}; time {statistics.median(r[11] for r in rows):.3f} s")
         gaps = [r[4] - r[5] for r in rows if r[5] is not None]
         if gaps:
             print(f"{'':6} effort 3 above the bound: median {statistics.median(gaps):.0f}, "

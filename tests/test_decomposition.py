@@ -35,7 +35,7 @@ def test_scrambled_sums_of_three_to_six_table_knots_split_into_their_factors(see
     total = pieces[0]
     for d in pieces[1:]:
         total = total.connected_sum(d)
-    scrambled = scramble(total, 3 * k, rng)
+    scrambled = scramble(total, 6 * k, rng)
     factors = connected_sum_factors(scrambled)
     assert Counter(fingerprint(f).key() for f in factors) == Counter(
         fingerprint(d).key() for d in pieces)
