@@ -1,4 +1,4 @@
-"""Benchmark (slow, not a CI test): crossings of projected random polygons before and after simplification.
+"""Benchmark (slow, not a CI test): crossings of random polygons before and after simplification.
 
 Seeded equilateral random polygons (bench/random_polygons.py) are reduced
 (KMT) and projected; the diagram is then simplified four ways, side by side
@@ -35,14 +35,13 @@ import numpy as np
 
 sys.path.insert(0, str(Path(__file__).resolve().parent))
 
-from random_polygons import random_polygon  # noqa: E402
-
 from knotsift.curves.frame import Chain, prepare_chains  # noqa: E402
 from knotsift.curves.kmt import kmt_reduce  # noqa: E402
 from knotsift.curves.projection import project  # noqa: E402
 from knotsift.decomposition import connected_sum_factors  # noqa: E402
 from knotsift.diagram import Diagram  # noqa: E402
 from knotsift.simplify import remove_bigon, remove_nugatory, simplify  # noqa: E402
+from random_polygons import random_polygon  # noqa: E402
 
 
 def simplify_as_before(diagram: Diagram) -> Diagram:
@@ -113,8 +112,10 @@ def main() -> None:
         print(f"{n:6d} {med[0]:9.0f} {med[1]:7.0f} {med[2]:6.0f} {med[3]:6.0f} {med[4]:6.0f} {b} "
               f"{times[0]:9.3f} {times[1]:8.3f} {times[2]:8.3f} {times[3]:8.3f}"
               f"   bound on {len(bounds)}/{len(rows)}; effort-0 counts and Jones agree: {same}")
-        print(f"{'':6} factors displayed after effort 1: median {statistics.median(r[10] for r in rows):.0f}, "
-              f"max {max(r[10] for r in rows)}; time {statistics.median(r[11] for r in rows):.3f} s")
+        nf = [r[10] for r in rows]
+        tf = statistics.median(r[11] for r in rows)
+        print(f"{'':6} factors displayed after effort 1: median {statistics.median(nf):.0f}, "
+              f"max {max(nf)}; time {tf:.3f} s")
         gaps = [r[4] - r[5] for r in rows if r[5] is not None]
         if gaps:
             print(f"{'':6} effort 3 above the bound: median {statistics.median(gaps):.0f}, "

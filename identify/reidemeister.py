@@ -12,8 +12,8 @@ import random
 from .diagram import Diagram
 from .errors import DiagramError
 
-__all__ = ["add_kink", "add_bigon", "r3_triangles", "apply_r3", "r3_crossings", "scramble",
-           "shuffle_labels"]
+__all__ = ["add_kink", "add_bigon", "r3_triangles", "apply_r3", "r3_crossings", "is_r3_triangle",
+           "scramble", "shuffle_labels"]
 
 
 def _fresh(diagram: Diagram, k: int) -> list[int]:
@@ -140,17 +140,26 @@ def r3_triangles(diagram: Diagram) -> list[int]:
     out = []
     xs = diagram.crossings
     for f, face in enumerate(diagram.faces()):
-        if len(face) != 3 or len({c for c, _ in face}) != 3:
-            continue
-        (c1, k1), (c2, k2), (c3, k3) = face
-        edges = {xs[c1][(k1 + 1) % 4], xs[c2][(k2 + 1) % 4], xs[c3][(k3 + 1) % 4]}
-        if len(edges) != 3:
-            continue
-        # strand S1 sits at entry k1+1 of c1 and entry k2 of c2, and so on round the face
-        strands = [((k1 + 1) % 4, k2 % 4), ((k2 + 1) % 4, k3 % 4), ((k3 + 1) % 4, k1 % 4)]
-        if any(a % 2 == 1 and b % 2 == 1 for a, b in strands):
+        if is_r3_triangle(xs, face):
             out.append(f)
     return out
+
+
+def is_r3_triangle(crossings, corners) -> bool:
+    """True when the face ``corners`` (in face-walk order) admits Reidemeister III.
+
+    ``crossings`` may be a list or a mapping by crossing id.
+    """
+    if len(corners) != 3 or len({c for c, _ in corners}) != 3:
+        return False
+    xs = crossings
+    (c1, k1), (c2, k2), (c3, k3) = corners
+    edges = {xs[c1][(k1 + 1) % 4], xs[c2][(k2 + 1) % 4], xs[c3][(k3 + 1) % 4]}
+    if len(edges) != 3:
+        return False
+    # strand S1 sits at entry k1+1 of c1 and entry k2 of c2, and so on round the face
+    strands = [((k1 + 1) % 4, k2 % 4), ((k2 + 1) % 4, k3 % 4), ((k3 + 1) % 4, k1 % 4)]
+    return any(a % 2 == 1 and b % 2 == 1 for a, b in strands)
 
 
 def apply_r3(diagram: Diagram, face: int) -> Diagram:

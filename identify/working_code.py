@@ -211,13 +211,15 @@ class WorkingCode:
 
         The same rule as :func:`knotsift.reidemeister.r3_triangles`.
         """
+        from .reidemeister import is_r3_triangle
+
         corners: dict[int, list[tuple[int, int]]] = {}
         for corner, f in face.items():
             corners.setdefault(f, []).append(corner)
         out = []
         for f in sorted(corners):
             cs = corners[f]
-            if len(cs) != 3 or len({c for c, _ in cs}) != 3:
+            if len(cs) != 3:
                 continue
             # put the corners in the order of the face walk
             (c1, k1) = cs[0]
@@ -225,15 +227,7 @@ class WorkingCode:
             for _ in range(2):
                 c, k = walk[-1]
                 walk.append(self.other(c, (k + 1) % 4))
-            if set(walk) != set(cs):
-                continue
-            (c1, k1), (c2, k2), (c3, k3) = walk
-            x = self.xs
-            edges = {x[c1][(k1 + 1) % 4], x[c2][(k2 + 1) % 4], x[c3][(k3 + 1) % 4]}
-            if len(edges) != 3:
-                continue
-            strands = [((k1 + 1) % 4, k2 % 4), ((k2 + 1) % 4, k3 % 4), ((k3 + 1) % 4, k1 % 4)]
-            if any(a % 2 == 1 and b % 2 == 1 for a, b in strands):
+            if set(walk) == set(cs) and is_r3_triangle(self.xs, walk):
                 out.append(walk)
         return out
 

@@ -6,12 +6,12 @@ import random
 from collections import Counter
 
 import pytest
-
 from knotsift.decomposition import connected_sum_factors, decomposing_edges, split_along
 from knotsift.invariants.fingerprint import fingerprint
 from knotsift.invariants.jones import jones_polynomial
 from knotsift.notations.conway import parse_rational
 from knotsift.reidemeister import scramble
+
 from tests.knots import PRIME_KNOTS_TO_7, TREFOIL
 
 

@@ -4,13 +4,13 @@ import random
 
 import pytest
 from hypothesis import given, settings
-
 from knotsift.diagram import Diagram
 from knotsift.invariants.alexander import alexander_polynomial
 from knotsift.invariants.jones import jones_polynomial
 from knotsift.reidemeister import add_bigon, add_kink, scramble
 from knotsift.simplify import remove_bigon, remove_nugatory, simplify
 from knotsift.strands import reroute_strand
+
 from tests.strategies import braid_closure, braid_words
 
 TREFOIL = Diagram([(1, 5, 2, 4), (3, 1, 4, 6), (5, 3, 6, 2)])
@@ -65,6 +65,7 @@ def test_simplify_keeps_the_jones_polynomial(wb):
 def _scrambled_table_knots(moves: int, seed: int):
     """Table knots through 7 crossings, each scrambled by ``moves`` random Reidemeister moves."""
     from knotsift.notations.conway import parse_rational
+
     from tests.knots import PRIME_KNOTS_TO_7
 
     rng = random.Random(seed)
@@ -131,10 +132,10 @@ def test_effort_must_be_a_non_negative_integer():
 def test_random_polygon_diagrams_keep_their_jones_polynomial():
     """Projected seeded random polygons: every effort gives the same V as the projection."""
     import numpy as np
-
     from knotsift.curves.frame import Chain, prepare_chains
     from knotsift.curves.kmt import kmt_reduce
     from knotsift.curves.projection import project
+
     from tests.curves.curves import random_polygon
 
     rng = np.random.default_rng(44)

@@ -1,16 +1,16 @@
-"""Tests of self-contact: true meetings are errors, near approaches are warnings resolved exactly."""
+"""Tests of self-contact: true meetings are errors, near approaches warnings decided exactly."""
 
 from __future__ import annotations
 
 import numpy as np
 import pytest
-
 from knotsift.curves.contact import check_no_contact
 from knotsift.curves.frame import Chain, prepare_chains
 from knotsift.curves.kmt import kmt_reduce
 from knotsift.curves.projection import project
 from knotsift.errors import CurveError
 from knotsift.invariants.fingerprint import fingerprint
+
 from tests.curves.curves import random_polygon, right_torus_knot
 
 
@@ -37,9 +37,10 @@ def pinched_trefoil(gap: float) -> np.ndarray:
     t = (d[:, 0] * w[:, 1] - d[:, 1] * w[:, 0]) / den
     s = (d[:, 0] * r[:, 1] - d[:, 1] * r[:, 0]) / den
     hit = (t > 0) & (t < 1) & (s > 0) & (s < 1)
-    found = list(zip(i[hit].tolist(), j[hit].tolist(), t[hit].tolist(), s[hit].tolist()))
+    found = list(zip(i[hit].tolist(), j[hit].tolist(), t[hit].tolist(), s[hit].tolist(),
+                     strict=True))
     crossers = {k for i, j, _, _ in found for k in (i, j)}
-    for i, j, t, s in found:
+    for i, j, t, s in found:  # noqa: B007 - the crossing found is used below
         if not {(i - 1) % n, (i + 1) % n} & crossers:
             break
     else:  # pragma: no cover - the curve is fixed

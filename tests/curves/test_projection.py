@@ -4,12 +4,12 @@ from __future__ import annotations
 
 import numpy as np
 import pytest
-
 from knotsift.curves.frame import Chain, prepare_chains
 from knotsift.curves.projection import project
 from knotsift.invariants.fingerprint import fingerprint
 from knotsift.invariants.jones import jones_polynomial
 from knotsift.laurent import Laurent
+
 from tests.curves.curves import (
     figure_eight,
     hopf_link,
