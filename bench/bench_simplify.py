@@ -12,8 +12,9 @@ on the same diagram:
   reductions;
 * ``effort 3``: also two rounds of the seeded randomised search.
 
-It also counts the connected-sum factors that the effort-1 diagram displays
-(knotsift.decomposition).
+It also counts self-contact errors and near approaches (segments closer than
+1e-4 bond lengths, an error before and a warning now), and the connected-sum
+factors that the effort-1 diagram displays (knotsift.decomposition).
 
 The lower bound is the span of the Jones polynomial (a knot's crossing
 number is at least the span, Kauffman 1987, Murasugi 1987, Thistlethwaite
@@ -35,11 +36,13 @@ import numpy as np
 
 sys.path.insert(0, str(Path(__file__).resolve().parent))
 
+from knotsift.curves.contact import check_no_contact  # noqa: E402
 from knotsift.curves.frame import Chain, prepare_chains  # noqa: E402
 from knotsift.curves.kmt import kmt_reduce  # noqa: E402
 from knotsift.curves.projection import project  # noqa: E402
 from knotsift.decomposition import connected_sum_factors  # noqa: E402
 from knotsift.diagram import Diagram  # noqa: E402
+from knotsift.errors import CurveError  # noqa: E402
 from knotsift.simplify import remove_bigon, remove_nugatory, simplify  # noqa: E402
 from random_polygons import random_polygon  # noqa: E402
 
@@ -83,9 +86,15 @@ def main() -> None:
         rng = np.random.default_rng([args.seed, n])
         rows = []
         same = True
+        contact_errors = near_frames = 0
         for k in range(args.frames):
             x = random_polygon(n, rng)
             y = prepare_chains([Chain("A", x, True)]).chains[0].coords
+            try:
+                near_frames += bool(check_no_contact([(y, True)], ["A"]))
+            except CurveError:
+                contact_errors += 1
+                continue
             red = kmt_reduce([(y, True)]).chains
             d = project(red, np.random.default_rng([args.seed, n, k]),
                         directions=args.directions).diagram
@@ -112,6 +121,8 @@ def main() -> None:
         print(f"{n:6d} {med[0]:9.0f} {med[1]:7.0f} {med[2]:6.0f} {med[3]:6.0f} {med[4]:6.0f} {b} "
               f"{times[0]:9.3f} {times[1]:8.3f} {times[2]:8.3f} {times[3]:8.3f}"
               f"   bound on {len(bounds)}/{len(rows)}; effort-0 counts and Jones agree: {same}")
+        print(f"{'':6} self-contact errors: {contact_errors}/{args.frames}; frames with a near "
+              f"approach under 1e-4 (an error before, a warning now): {near_frames}/{args.frames}")
         nf = [r[10] for r in rows]
         tf = statistics.median(r[11] for r in rows)
         print(f"{'':6} factors displayed after effort 1: median {statistics.median(nf):.0f}, "
