@@ -113,3 +113,16 @@ def test_random_polygons_have_no_false_contacts():
             except CurveError as exc:
                 errors.append(f"N={n} #{k}: {exc}")
     assert errors == []
+
+
+def test_ring_through_itself_is_an_error_in_the_pipeline(table):
+    """A trefoil pushed until two strands meet exactly: identify_curve refuses it."""
+    from knotsift.curves.pipeline import identify_curve
+
+    x = units(right_torus_knot(2, 3, 150))
+    y = x.copy()
+    # put a vertex of one strand exactly on a non-adjacent segment of another
+    far = int(np.argmax(np.linalg.norm(x - x[0], axis=1)))
+    y[0] = (x[far] + x[far + 1]) / 2
+    with pytest.raises(CurveError, match="passes through itself"):
+        identify_curve(y, table=table)
