@@ -105,12 +105,13 @@ def test_rerouting_and_search_reach_the_crossing_number():
     assert above0 >= 3
 
 
-def test_strand_rerouting_removes_a_long_detour():
-    """An over-strand pushed across a whole trefoil comes back (rerouting alone, no R1/R2)."""
+@pytest.mark.parametrize("over", [True, False])
+def test_strand_rerouting_removes_a_long_detour(over):
+    """A strand pushed over (or under) a trefoil three times comes back by rerouting alone."""
     d = TREFOIL
-    for _ in range(3):  # push one strand over three faces in a row
+    for _ in range(3):  # push one strand across three faces in a row
         face = max(range(len(d.faces())), key=lambda k: len(d.faces()[k]))
-        d = add_bigon(d, face, 0, 2, over=True)
+        d = add_bigon(d, face, 0, 2, over=over)
     assert d.number_of_crossings() == 9
     r = reroute_strand(d)
     assert r is not None and r.number_of_crossings() < 9
