@@ -197,3 +197,32 @@ def test_several_directions_keep_the_fewest_crossings():
 def test_directions_must_be_positive():
     with pytest.raises(ValueError, match="directions"):
         project([(units(figure_eight(50)), True)], np.random.default_rng(0), directions=0)
+
+
+def test_passages_closer_than_float_resolution_are_ordered_exactly():
+    """Two rings cross a long segment 1e-12 apart: the order along it is the true order.
+
+    Ring C is ring B moved by 1e-12 along the segment's direction, so C's
+    crossing comes after B's along the segment (common practice: a
+    translation moves every crossing with it).
+    """
+    from knotsift.curves.contact import segment_set
+    from knotsift.curves.projection import _crossings
+
+    a = np.array([[0.0, 0, 0], [10, 0, 0], [5, -5, 0]])
+    b = np.array([[5.0, -1, 1], [5, 1, 1], [5, 0, 5]])
+    c = b + np.array([1e-12, 0, 0])
+    segs = segment_set([(a, True), (b, True), (c, True)])
+    u = np.array([0.1, 0.2, 1.0])
+    found = _crossings(segs, u, 1e-9)
+    on_a = []
+    for row in found:
+        for seg_col, par_col, other_col in ((0, 1, 2), (2, 3, 0)):
+            if int(row[seg_col]) == 0:
+                on_a.append((row[par_col], int(segs.chain[int(row[other_col])])))
+    on_a.sort()
+    chains = [ch for _, ch in on_a]
+    assert sorted(chains) == [1, 1, 2, 2]
+    # along segment 0 (running +x) each crossing of B comes just before C's twin
+    first_b = chains.index(1)
+    assert chains[first_b + 1] == 2
