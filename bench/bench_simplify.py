@@ -76,7 +76,18 @@ def main() -> None:
     ap.add_argument("--directions", type=int, default=1, help="projection directions tried")
     ap.add_argument("--jones-max", type=int, default=40,
                     help="compute the Jones span bound up to this many crossings")
+    ap.add_argument("--memory-gb", type=float, default=6.0,
+                    help="address-space cap of this process (Jones can grow fast)")
     args = ap.parse_args()
+    try:
+        import resource
+
+        cap = int(args.memory_gb * 1e9)
+        soft, hard = resource.getrlimit(resource.RLIMIT_AS)
+        if soft == resource.RLIM_INFINITY or soft > cap:
+            resource.setrlimit(resource.RLIMIT_AS, (cap, hard))
+    except (ImportError, ValueError, OSError):  # not on this platform: use prlimit
+        pass
     from knotsift.invariants.jones import jones_polynomial
 
     print(f"{'N':>6} {'projected':>9} {'before':>7} {'eff0':>6} {'eff1':>6} {'eff3':>6} "
