@@ -15,6 +15,7 @@ meet in space, a segment seen end-on) makes the direction be redrawn.
 from __future__ import annotations
 
 from dataclasses import dataclass
+from fractions import Fraction
 
 import numpy as np
 
@@ -124,10 +125,11 @@ def _crossings(segs: SegmentSet, u: np.ndarray, tol: float):
         # neighbours share a vertex; they overlap in projection only when collinear there
         ai, aj = i[adj], j[adj]
         d, bound = det3(r[ai], r[aj], np.broadcast_to(u, (ai.size, 3)))
+        ue = exact_vector(u)
         for k in np.flatnonzero(np.abs(d) <= bound):
             a, b = exact_vector(r[ai[k]]), exact_vector(r[aj[k]])
-            if det3_exact(a, b, exact_vector(u)) == 0:
-                return None
+            if det3_exact(a, b, ue) == 0 and _seen_dot(a, b, ue) < 0:
+                return None  # collinear in projection and folding back onto each other
     i, j = i[~adj], j[~adj]
     if i.size == 0:
         return np.zeros((0, 6))
@@ -188,15 +190,33 @@ def _exact_pair(segs: SegmentSet, i: int, j: int, u: np.ndarray):
     o2 = det3_exact(ri, sub(qj, pi), ue)
     o3 = det3_exact(rj, sub(pi, pj), ue)
     o4 = det3_exact(rj, sub(qi, pj), ue)
-    touching = o1 * o2 <= 0 and o3 * o4 <= 0
-    if not touching:
-        return False, ()
-    if 0 in (o1, o2, o3, o4):
+    if o1 * o2 < 0 and o3 * o4 < 0:
+        pass  # a proper crossing
+    elif ((o1 == 0 and _seen_between(pj, pi, qi, ue)) or (o2 == 0 and _seen_between(qj, pi, qi, ue))
+          or (o3 == 0 and _seen_between(pi, pj, qj, ue))
+          or (o4 == 0 and _seen_between(qi, pj, qj, ue))):
         return None  # a vertex projects exactly onto the other segment (or they overlap)
+    else:
+        return False, ()
     H = det3_exact(sub(pi, pj), ri, rj)
     if H == 0:
         return None  # the segments meet in space
     return True, (o1, o2, o3, o4, H)
+
+
+def _seen_dot(a, b, u) -> Fraction:
+    """``|u|^2`` times the dot product of vectors ``a`` and ``b`` as seen along ``u`` (exact)."""
+    def dot(x, y):
+        return x[0] * y[0] + x[1] * y[1] + x[2] * y[2]
+
+    return dot(u, u) * dot(a, b) - dot(a, u) * dot(b, u)
+
+
+def _seen_between(x, p, q, u) -> bool:
+    """Whether ``x``, seen on the line of ``[p, q]`` along ``u``, lies within the segment."""
+    a = tuple(xi - pi for xi, pi in zip(x, p, strict=True))
+    b = tuple(xi - qi for xi, qi in zip(x, q, strict=True))
+    return _seen_dot(a, b, u) <= 0
 
 
 def _settle_ties(segs: SegmentSet, found: np.ndarray, u: np.ndarray) -> None:

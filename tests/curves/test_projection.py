@@ -226,3 +226,19 @@ def test_passages_closer_than_float_resolution_are_ordered_exactly():
     # along segment 0 (running +x) each crossing of B comes just before C's twin
     first_b = chains.index(1)
     assert chains[first_b + 1] == 2
+
+
+def test_straight_runs_of_beads_are_not_degenerate():
+    """Collinear beads (a square ring, ten beads a side) project at once, without a redraw.
+
+    Segments on one straight line are collinear in every projection, yet
+    meet only at shared beads: no direction is degenerate (common practice).
+    """
+    side = np.linspace(0, 1, 10, endpoint=False)[:, None]
+    corners = np.array([[0.0, 0, 0], [1, 0, 0], [1, 1, 0], [0, 1, 0]])
+    x = np.concatenate([a + side * (b - a) for a, b in zip(corners, np.roll(corners, -1, 0),
+                                                               strict=True)])
+    for seed in range(3):
+        proj = project([(units(x), True)], np.random.default_rng(seed))
+        assert proj.redraws == 0
+        assert proj.diagram.number_of_crossings() == 0
