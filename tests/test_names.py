@@ -193,12 +193,14 @@ def test_show_left_handed_trefoil(capsys):
 
 @pytest.mark.parametrize("name", ["10_48", "10_71", "10_91", "10_104"])
 def test_show_and_identify_agree_on_chirality(capsys, name, table):
-    """Chiral knots whose invariants here equal their mirror's: both say undetermined."""
+    """Chiral knots that only rho_1 tells from their mirror image (V(t) = V(1/t), signature
+    0): show and identify agree on the reference form, now decided by rho_1."""
     code, out, _ = run(capsys, "show", name, "--json")
     info = json.loads(out)
     ref = next(f for f in table.forms_of(name) if f.is_reference)
     result = identify(Diagram(ref.pd()), table=table)
     assert result.candidates[0].name == name
-    assert info["chirality"] == result.candidates[0].chirality == "undetermined"
+    assert info["chirality"] == result.candidates[0].chirality == "same"
+    assert info["chirality_basis"] == "rho_1"
     code, out, _ = run(capsys, "show", "3_1*", "--json")
     assert json.loads(out)["chirality"] == "mirror"

@@ -76,19 +76,23 @@ def test_mirror_only_ambiguity_is_undetermined_chirality():
     ("Conway: 2 1 2 4", "9_12", "4_1#5_2"),  # the reversed chain, same knot (Schubert)
 ])
 def test_rational_input_settles_ambiguity(conway, expected, ruled_out):
-    """The invariants here cannot tell 9_12 from 4_1#5_2, nor 8_8 from 10_129; the rational
-    notation can: a 2-bridge knot is prime, and 10_129 is not 2-bridge."""
+    """9_12 and 4_1#5_2, and 8_8 and 10_129, share Jones, Alexander, determinant and
+    signature; rho_1 tells them apart (measured on the table), so the rational input is
+    identified without the 2-bridge argument, and the other knot is no candidate."""
     r = identify(conway, table=TABLE)
     assert r.status == "identified" and r.candidates[0].name == expected
-    assert ruled_out in r.notes[0] and "Schubert 1956" in r.notes[0]
+    assert ruled_out not in {c.name for c in r.candidates}
     assert not any(n.startswith("several table knots") for n in r.notes)
 
 
-def test_other_notations_stay_ambiguous():
-    """A DT code of 9_12 carries no 2-bridge information: still ambiguous (honestly)."""
+def test_other_notations_identified_by_rho_1():
+    """A DT code of 9_12 carries no 2-bridge information, but rho_1 separates 9_12 from
+    4_1#5_2 (measured on the table): identified, with rho_1 among what separates them."""
     dt = "DT: 4 10 16 14 2 18 8 6 12"
     r = identify(dt, table=TABLE)
-    assert r.status == "ambiguous" and {"9_12", "4_1#5_2"} <= {c.name for c in r.candidates}
+    assert r.status == "identified" and r.candidates[0].name == "9_12"
+    separated = r.separation["jones"]["others_separated_by"]
+    assert any("rho_1" in by for label, by in separated.items() if label.startswith("4_1#5_2"))
 
 
 @pytest.mark.parametrize("a,b,same", [
