@@ -211,6 +211,10 @@ def _parser() -> argparse.ArgumentParser:
     from .curves.commands import register as register_curve  # knots in 3D coordinates
 
     register_curve(sub)
+
+    from .drawing.commands import register as register_draw  # pictures of diagrams
+
+    register_draw(sub, NOTATION_CHOICES)
     return p
 
 

@@ -1,0 +1,71 @@
+"""The ``knotsift draw`` subcommand (registered by knotsift.cli); thin: one library call."""
+
+from __future__ import annotations
+
+import sys
+from pathlib import Path
+
+__all__ = ["register"]
+
+
+def _cmd_draw(args) -> int:
+    from ..simplify import simplify
+    from .layout import layout_diagram
+    from .render import DrawOptions, write_drawing
+    from .sources import diagrams_from_file, diagrams_from_text
+
+    source = args.source
+    if Path(source).is_file():
+        items = diagrams_from_file(source, args.notation, frame=args.frame,
+                                   closure=args.closure, seed=args.seed,
+                                   closed=False if args.open else None)
+    else:
+        items = diagrams_from_text(source, args.notation)
+    if args.simplified:
+        items = [(title, simplify(d)) for title, d in items]
+    options = DrawOptions(arrows=args.arrows or args.labels, signs=args.signs,
+                          labels=args.labels)
+    panels = [(title, layout_diagram(d, seed=args.seed)) for title, d in items]
+    out = write_drawing(panels, args.output, options, columns=args.columns)
+    if not args.quiet:
+        n = sum(d.number_of_crossings() for _, d in items)
+        what = f"{len(items)} diagrams" if len(items) > 1 else "1 diagram"
+        print(f"wrote {out} ({what}, {n} crossings)", file=sys.stderr)
+    return 0
+
+
+def register(sub, notation_choices) -> None:
+    """Add ``draw`` to the ``knotsift`` parser's subparsers."""
+    from .sources import DRAW_CLOSURES
+
+    d = sub.add_parser(
+        "draw", help="draw a knot or link diagram (SVG, PNG or PDF)",
+        description="Draw the diagram of a code, of every code in a file (one panel each), or "
+                    "of one frame of a coordinate file seen along a seeded direction.")
+    d.add_argument("source", metavar="CODE_OR_FILE",
+                   help="a code in any notation (quote it), a file of codes, or a coordinate "
+                        "file (.xyz, .pdb, .csv, .npy)")
+    d.add_argument("-o", "--output", required=True,
+                   help="the picture to write: .svg, .png or .pdf")
+    d.add_argument("-n", "--notation", choices=notation_choices,
+                   help="read the codes in this notation instead of detecting it")
+    d.add_argument("--simplified", action="store_true",
+                   help="draw the simplified diagram (fewer crossings, same knot)")
+    d.add_argument("--arrows", action="store_true", help="orientation arrows on every edge")
+    d.add_argument("--signs", action="store_true", help="the sign of every crossing")
+    d.add_argument("--labels", action="store_true",
+                   help="the PD edge labels, crossing numbers and arrows, to check a "
+                        "transcription label by label")
+    d.add_argument("--seed", type=int, default=0,
+                   help="seed of the picture's choices and of a chain's view direction "
+                        "(default 0)")
+    d.add_argument("--frame", type=int, default=0,
+                   help="frame of a coordinate file to draw, from 0 (default 0)")
+    d.add_argument("--open", action="store_true",
+                   help="coordinate chains are open chains (default: PDB open, others rings)")
+    d.add_argument("--closure", choices=DRAW_CLOSURES, default="far",
+                   help="how open chains are closed before projecting (default far)")
+    d.add_argument("--columns", type=int, default=None,
+                   help="panels per row when a file holds several codes")
+    d.add_argument("-q", "--quiet", action="store_true", help="no message on success")
+    d.set_defaults(func=_cmd_draw)
