@@ -26,6 +26,10 @@ def _cmd_draw(args) -> int:
     options = DrawOptions(arrows=args.arrows or args.labels, signs=args.signs,
                           labels=args.labels)
     panels = [(title, layout_diagram(d, seed=args.seed)) for title, d in items]
+    for title, lay in panels:
+        for note in lay.notes:
+            print(f"knotsift draw: warning: {title + ': ' if title else ''}{note}",
+                  file=sys.stderr)
     out = write_drawing(panels, args.output, options, columns=args.columns)
     if not args.quiet:
         n = sum(d.number_of_crossings() for _, d in items)

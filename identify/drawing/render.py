@@ -61,7 +61,7 @@ def _screen(points: np.ndarray, origin: np.ndarray) -> np.ndarray:
 
 
 def _fmt(v: float) -> str:
-    return f"{v:.2f}".rstrip("0").rstrip(".")
+    return f"{v:.3f}".rstrip("0").rstrip(".")
 
 
 def _path_data(pieces: list[np.ndarray], closed: bool) -> str:

@@ -1,4 +1,4 @@
-"""What ``knotsift draw`` draws: the diagrams of a code, a file of codes, or a 3D chain's projection.
+"""What ``knotsift draw`` draws: a code, a file of codes, or a 3D chain's projected diagram.
 
 A coordinate file (``.xyz``, ``.pdb``, ``.csv``/``.tsv`` of coordinates,
 ``.npy``) gives the diagram of one frame seen along one seeded direction:
@@ -135,6 +135,7 @@ def chain_diagram(path: str | Path, frame: int = 0, closure: str = "far", seed: 
             extra = (direct_closure if closure == "direct" else far_closure)(x)
             x = np.vstack([x, extra]) if len(extra) else x
         rings.append((x, True))
-    typed = polygon_type(rings, np.random.default_rng([seed, 0]), reduce=reduce, simplified=False,
-                         with_fingerprint=False, where=f"{path}, frame {frame}")
+    typed = polygon_type(rings, np.random.default_rng([seed, 0]), reduce=reduce,
+                         simplified=False, with_fingerprint=False,
+                         where=f"{path}, frame {frame}")
     return typed.diagram
