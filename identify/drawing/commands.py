@@ -5,7 +5,7 @@ from __future__ import annotations
 import sys
 from pathlib import Path
 
-__all__ = ["register"]
+__all__ = ["register", "register_report"]
 
 
 def _cmd_draw(args) -> int:
@@ -73,3 +73,28 @@ def register(sub, notation_choices) -> None:
                    help="panels per row when a file holds several codes")
     d.add_argument("-q", "--quiet", action="store_true", help="no message on success")
     d.set_defaults(func=_cmd_draw)
+
+
+def _cmd_report(args) -> int:
+    from .report import write_report
+
+    out = write_report(args.results, args.output, title=args.title, table_path=args.table)
+    if not args.quiet:
+        print(f"wrote {out} ({out.stat().st_size / 1e6:.1f} MB)", file=sys.stderr)
+    return 0
+
+
+def register_report(sub) -> None:
+    """Add ``report`` to the ``knotsift`` parser's subparsers."""
+    r = sub.add_parser(
+        "report", help="a self-contained HTML report of a classify output",
+        description="Build one HTML file (inline figures, no network) from the --out of "
+                    "knotsift classify: options and totals, spectrum, P(unknot) against "
+                    "length, a diagram per type, the sortable rows and the errors.")
+    r.add_argument("results", help="the --out of a classify run (file or database URL)")
+    r.add_argument("-o", "--output", default="report.html",
+                   help="the HTML file to write (default report.html)")
+    r.add_argument("--title", help="the report's title (default from the results' name)")
+    r.add_argument("--table", help="reference table for the drawn examples (default shipped)")
+    r.add_argument("-q", "--quiet", action="store_true", help="no message on success")
+    r.set_defaults(func=_cmd_report)
