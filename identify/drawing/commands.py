@@ -15,6 +15,8 @@ def _cmd_draw(args) -> int:
     from .sources import diagrams_from_file, diagrams_from_text
 
     source = args.source
+    if args.three_d:
+        return _draw_chain(args)
     if Path(source).is_file():
         items = diagrams_from_file(source, args.notation, frame=args.frame,
                                    closure=args.closure, seed=args.seed,
@@ -35,6 +37,30 @@ def _cmd_draw(args) -> int:
         n = sum(d.number_of_crossings() for _, d in items)
         what = f"{len(items)} diagrams" if len(items) > 1 else "1 diagram"
         print(f"wrote {out} ({what}, {n} crossings)", file=sys.stderr)
+    return 0
+
+
+def _draw_chain(args) -> int:
+    from .chain3d import chain_file_figure
+    from .render import DrawingError
+
+    if not Path(args.source).is_file():
+        raise DrawingError(f"--3d draws a chain of a coordinate file; no file {args.source!r}",
+                           value=args.source)
+    suffix = Path(args.output).suffix.lower()
+    if suffix not in (".png", ".svg", ".pdf"):
+        raise DrawingError(f"a drawing is written as .svg, .png or .pdf, got "
+                           f"{Path(args.output).name!r}", value=args.output)
+    fig = chain_file_figure(args.source, frame=args.frame, chain=args.chain,
+                            closed=False if args.open else None, closure=args.closure,
+                            seed=args.seed, core=args.core, window=args.window)
+    try:
+        fig.savefig(args.output, dpi=150)
+    except OSError as exc:
+        raise DrawingError(f"cannot write {args.output}: {exc.strerror}",
+                           value=args.output) from None
+    if not args.quiet:
+        print(f"wrote {args.output}", file=sys.stderr)
     return 0
 
 
@@ -69,6 +95,16 @@ def register(sub, notation_choices) -> None:
                    help="coordinate chains are open chains (default: PDB open, others rings)")
     d.add_argument("--closure", choices=DRAW_CLOSURES, default="far",
                    help="how open chains are closed before projecting (default far)")
+    d.add_argument("--3d", dest="three_d", action="store_true",
+                   help="draw a chain of a coordinate file in 3D (oblique and along the "
+                        "projection direction) instead of its diagram")
+    d.add_argument("--chain", type=int, default=0,
+                   help="with --3d: which chain of the frame, from 0 (default 0)")
+    d.add_argument("--core", action="store_true",
+                   help="with --3d: identify the chain and colour its knotted core")
+    d.add_argument("--window", type=int, default=None,
+                   help="with --3d: add a strip of the knot types of sliding subchains of "
+                        "this many beads")
     d.add_argument("--columns", type=int, default=None,
                    help="panels per row when a file holds several codes")
     d.add_argument("-q", "--quiet", action="store_true", help="no message on success")
