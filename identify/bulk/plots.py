@@ -127,9 +127,9 @@ def plot_spectrum(spec, path, *, top: int = 12, title: str | None = None,
 
 
 def _spectrum(spec, *, top, title, group_title, unit, mirrors, log_scale):
-    import matplotlib
+    from ..drawing.render import require_matplotlib
 
-    matplotlib.use("Agg", force=False)
+    require_matplotlib()
     from matplotlib import rc_context
     from matplotlib.figure import Figure
 
@@ -235,9 +235,9 @@ def unknot_figure(fit: dict, *, title: str | None = None, log_scale: bool = True
     The points carry Wilson 95% intervals; the fitted N0 is given with one
     standard error, and the legend says which is which.
     """
-    import matplotlib
+    from ..drawing.render import require_matplotlib
 
-    matplotlib.use("Agg", force=False)
+    require_matplotlib()
     import numpy as np
     from matplotlib import rc_context
     from matplotlib.figure import Figure

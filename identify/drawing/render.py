@@ -20,7 +20,7 @@ from ..errors import KnotsiftError
 from .layout import DiagramLayout
 
 __all__ = ["PALETTE", "DrawOptions", "svg_text", "write_drawing", "drawing_figure",
-           "DrawingError", "FORMATS"]
+           "DrawingError", "FORMATS", "require_matplotlib"]
 
 #: Component colours: our own choice, dark enough on white and told apart in grey.
 PALETTE = ("#1f4e79", "#c0504d", "#2e7d4f", "#7a4fa3", "#b8860b", "#2b8a9a", "#8c564b",
@@ -215,15 +215,21 @@ def drawing_figure(panels: list[tuple[str, DiagramLayout]], options: DrawOptions
     return fig
 
 
-def _matplotlib_figure():
+def require_matplotlib():
+    """matplotlib (non-interactive backend), or one clear error naming the extra to install."""
     try:
         import matplotlib
-
-        matplotlib.use("Agg", force=False)
-        from matplotlib.figure import Figure
     except ImportError:
-        raise DrawingError("PNG and PDF pictures and figures need matplotlib: "
-                           "pip install 'knotsift[plots]'") from None
+        raise DrawingError("figures, PNG and PDF need matplotlib, which comes with the "
+                           "'plots' extra: pip install 'knotsift[plots]'") from None
+    matplotlib.use("Agg", force=False)
+    return matplotlib
+
+
+def _matplotlib_figure():
+    require_matplotlib()
+    from matplotlib.figure import Figure
+
     return Figure
 
 

@@ -141,6 +141,16 @@ def _figure_svg(fig) -> str:
     return re.sub(r"<metadata>.*?</metadata>", "", text, flags=re.S)
 
 
+def _figure_or_note(make) -> str:
+    """An inline figure, or a line saying why there is none (matplotlib missing)."""
+    from .render import DrawingError
+
+    try:
+        return f'<div class="figure">{_figure_svg(make())}</div>'
+    except DrawingError as exc:
+        return f'<p class="muted">No figure: {_esc(exc)}</p>'
+
+
 def _table(headers: list[str], rows: list[list], numeric: set[int] = frozenset()) -> str:
     out = ["<table><thead><tr>"]
     out += [f"<th>{_esc(h)}</th>" for h in headers]
@@ -253,8 +263,8 @@ def build_report(out, *, title: str | None = None, table_path: str | None = None
                          f"{r.low:.2%} \u2013 {r.high:.2%}"])
             shown_types.append(str(r.type))
         small = float(spec["fraction"].min()) < 0.02
-        fig = spectrum_figure(spec, top=_SPECTRUM_TOP, unit=unit, log_scale=small)
-        parts.append(f'<div class="figure">{_figure_svg(fig)}</div>')
+        parts.append(_figure_or_note(lambda: spectrum_figure(
+            spec, top=_SPECTRUM_TOP, unit=unit, log_scale=small)))
         if small:
             parts.append('<p class="muted">The fraction axis is logarithmic so that rare types '
                          "stay readable.</p>")
@@ -271,7 +281,7 @@ def build_report(out, *, title: str | None = None, table_path: str | None = None
         except KnotsiftError as exc:
             parts.append(f"<p>No fit: {_esc(exc)}</p>")
         else:
-            parts.append(f'<div class="figure">{_figure_svg(unknot_figure(fit))}</div>')
+            parts.append(_figure_or_note(lambda: unknot_figure(fit)))
             parts.append(f"<p>Fit of P(unknot) = exp(&minus;N/N<sub>0</sub>) "
                          f"({_esc(fit['method'])}): N<sub>0</sub> = {fit['N0']:.4g} &plusmn; "
                          f"{fit['N0_error']:.2g} (one standard error). Points: fraction "
