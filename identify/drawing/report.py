@@ -46,7 +46,7 @@ tabular-nums}.caution{background:#fff8e6;border-left:4px solid #d9a400;padding:.
 .examples svg{width:100%;height:auto}figcaption{font-size:.85em;text-align:center}
 #rows th{cursor:pointer;user-select:none}#rows th[aria-sort=ascending]::after{content:" \\25B2"}
 #rows th[aria-sort=descending]::after{content:" \\25BC"}.err{color:#9b1c1c}
-.figure svg{max-width:100%;height:auto}.muted{color:#666}
+.figure svg{max-width:100%;height:auto}.muted{color:#666}.wide{overflow-x:auto}
 """
 
 _SORT_SCRIPT = """
@@ -112,6 +112,19 @@ def run_options(out) -> dict:
         return {}
     options = meta.get("options") if isinstance(meta, dict) else None
     return options if isinstance(options, dict) else {}
+
+
+def _shown_source(out) -> str:
+    """The results' name as shown in a shared report: a file's name, a URL without password."""
+    text = str(out)
+    if "://" in text:
+        try:
+            from sqlalchemy.engine import make_url
+
+            return make_url(text).render_as_string(hide_password=True)
+        except Exception:  # noqa: BLE001 - not a database URL: show the scheme only
+            return text.split("://", 1)[0] + "://..."
+    return Path(text).name
 
 
 def _read(out):
@@ -224,7 +237,7 @@ def build_report(out, *, title: str | None = None, table_path: str | None = None
         f"<title>{_esc(title)}</title><style>{_STYLE}</style></head><body>",
         f"<h1>{_esc(title)}</h1>",
         f'<p class="muted">Built {time.strftime("%Y-%m-%d %H:%M UTC", time.gmtime())} by '
-        f"knotsift from {_esc(out)}.</p>",
+        f"knotsift from {_esc(_shown_source(out))}.</p>",
         '<div class="caution"><p><strong>How to read this report.</strong> A name here means '
         "that the invariants knotsift computed (Jones and Alexander polynomials, determinant, "
         "signature) equal those of that knot in the reference table. That is evidence, not "
@@ -326,8 +339,8 @@ def build_report(out, *, title: str | None = None, table_path: str | None = None
             cells.append(f'<td class="n">{_esc(v)}</td>' if c in numeric_cols
                          else f"<td>{_esc(v)}</td>")
         body.append("<tr>" + "".join(cells) + "</tr>")
-    parts.append(f'<table id="rows"><thead><tr>{head}</tr></thead><tbody>'
-                 + "\n".join(body) + "</tbody></table>")
+    parts.append(f'<div class="wide"><table id="rows"><thead><tr>{head}</tr></thead><tbody>'
+                 + "\n".join(body) + "</tbody></table></div>")
     # errors
     parts.append(f"<h2>Errors ({n_err})</h2>")
     if n_err:
