@@ -46,7 +46,7 @@ from ..diagram import Diagram
 from ..errors import DiagramError
 from ..partition import Partition
 
-__all__ = ["DiagramLayout", "Strand", "layout_diagram", "TENSIONS"]
+__all__ = ["DiagramLayout", "Strand", "layout_diagram", "segment_crossings", "TENSIONS"]
 
 #: Smoothing tried in turn; 0 is the straight drawing, planar by Tutte's theorem.
 TENSIONS = (1.0, 0.6, 0.3, 0.0)
@@ -433,7 +433,7 @@ def segment_crossings(segments: np.ndarray) -> list[tuple[int, int]]:
     return [tuple(p) for p in idx[hit].tolist()]
 
 
-def _problems(diagram: Diagram, pieces: list, gaps: list, strands: dict) -> list[str]:
+def _problems(pieces: list, gaps: list) -> list[str]:
     """What is wrong with the drawing, if anything: stray crossings, or a gap not crossed once."""
     segs, owner = [], []
     for k, comp in enumerate(pieces):
@@ -504,19 +504,17 @@ def layout_diagram(diagram: Diagram, seed: int = 0) -> DiagramLayout:
     pos: dict = {}
     faces = diagram.faces() if n else []
     offset = 0.0
-    centres = []
     for members in _parts(diagram) if n else []:
         part = _part_positions(diagram, members, faces, rng)
         for v, xy in part.items():
             pos[v] = xy + np.array([offset, 0.0])
-        centres.append(offset)
         offset += _PART_SPACING
     radii = [_GAP * _room(diagram, pos, i) for i in range(n)]
     last = None
     for tension in TENSIONS:
         strands = _strands(diagram, pos, tension)
         pieces, gaps, closed = _pieces(diagram, strands, pos, radii)
-        last = _problems(diagram, pieces, gaps, strands)
+        last = _problems(pieces, gaps)
         if not last:
             break
     else:
