@@ -72,6 +72,11 @@ def run(tmp_path_factory):
     return out
 
 
+@pytest.fixture(scope="module")
+def report_html(run, tmp_path_factory):
+    return write_report(run, tmp_path_factory.mktemp("report") / "report.html")
+
+
 def test_report_holds_every_section(run):
     """Options, totals, spectrum, fit, one drawing per named type, every row, the errors."""
     text = build_report(run)
@@ -143,10 +148,10 @@ def _console(stderr: str) -> list[str]:
     return [line for line in stderr.splitlines() if ":CONSOLE" in line]
 
 
-def test_report_opens_in_chromium_with_no_console_errors(run, tmp_path):
+def test_report_opens_in_chromium_with_no_console_errors(report_html, tmp_path):
     """Headless Chromium renders the report (a screenshot of a sensible size) and its page
     logs nothing to the console."""
-    html = write_report(run, tmp_path / "report.html")
+    html = report_html
     shot = tmp_path / "shot.png"
     done = _browse(tmp_path, html.as_uri(), "--window-size=1280,2400", f"--screenshot={shot}")
     assert done.returncode == 0, done.stderr[-2000:]
@@ -161,10 +166,10 @@ def test_report_opens_in_chromium_with_no_console_errors(run, tmp_path):
 @pytest.mark.parametrize("sort, column, descending", [("-seconds", "seconds", True),
                                                        ("knot", "knot", False),
                                                        ("-n_beads", "n_beads", True)])
-def test_report_table_sorts_in_chromium(run, tmp_path, sort, column, descending):
+def test_report_table_sorts_in_chromium(run, report_html, tmp_path, sort, column, descending):
     """The inline script sorts the rows (driven here by the address's #sort=COLUMN), and
     the page Chromium builds holds them in that order."""
-    html = write_report(run, tmp_path / "report.html")
+    html = report_html
     done = _browse(tmp_path, html.as_uri() + f"#sort={sort}", "--dump-dom")
     assert done.returncode == 0 and _console(done.stderr) == []
     dom = done.stdout
@@ -178,4 +183,5 @@ def test_report_table_sorts_in_chromium(run, tmp_path, sort, column, descending)
     assert len(values) == len(read_results(run))
     keys = values if column == "knot" else [float(v) if v else float("inf") for v in values]
     assert keys == sorted(keys, reverse=descending)
-    assert values != [r[k] for r in _Page.of(build_report(run)).rows]   # the order changed
+    unsorted = _Page.of(html.read_text(encoding="utf-8")).rows
+    assert values != [r[k] for r in unsorted]                       # the order changed
