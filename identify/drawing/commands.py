@@ -66,6 +66,7 @@ def _draw_chain(args) -> int:
 
 def register(sub, notation_choices) -> None:
     """Add ``draw`` to the ``knotsift`` parser's subparsers."""
+    from ..curves.commands import _positive
     from .sources import DRAW_CLOSURES
 
     d = sub.add_parser(
@@ -102,10 +103,10 @@ def register(sub, notation_choices) -> None:
                    help="with --3d: which chain of the frame, from 0 (default 0)")
     d.add_argument("--core", action="store_true",
                    help="with --3d: identify the chain and colour its knotted core")
-    d.add_argument("--window", type=int, default=None,
+    d.add_argument("--window", type=_positive, default=None,
                    help="with --3d: add a strip of the knot types of sliding subchains of "
                         "this many beads")
-    d.add_argument("--columns", type=int, default=None,
+    d.add_argument("--columns", type=_positive, default=None,
                    help="panels per row when a file holds several codes")
     d.add_argument("-q", "--quiet", action="store_true", help="no message on success")
     d.set_defaults(func=_cmd_draw)
