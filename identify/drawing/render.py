@@ -216,12 +216,15 @@ def drawing_figure(panels: list[tuple[str, DiagramLayout]], options: DrawOptions
 
 
 def require_matplotlib():
-    """matplotlib (non-interactive backend), or one clear error naming the extra to install."""
-    try:
-        import matplotlib
-    except ImportError:
-        raise DrawingError("figures, PNG and PDF need matplotlib, which comes with the "
-                           "'plots' extra: pip install 'knotsift[plots]'") from None
+    """matplotlib (non-interactive backend), or one clear error naming the ``plots`` extra.
+
+    Raises
+    ------
+    knotsift.extras.MissingExtraError
+    """
+    from ..extras import require
+
+    matplotlib = require("matplotlib", "plots", "drawing figures, PNG and PDF")
     matplotlib.use("Agg", force=False)
     return matplotlib
 

@@ -156,11 +156,11 @@ def _figure_svg(fig) -> str:
 
 def _figure_or_note(make) -> str:
     """An inline figure, or a line saying why there is none (matplotlib missing)."""
-    from .render import DrawingError
+    from ..extras import MissingExtraError
 
     try:
         return f'<div class="figure">{_figure_svg(make())}</div>'
-    except DrawingError as exc:
+    except MissingExtraError as exc:
         return f'<p class="muted">No figure: {_esc(exc)}</p>'
 
 

@@ -10,6 +10,7 @@ import pytest
 from knotsift import Diagram
 from knotsift.drawing.layout import layout_diagram
 from knotsift.drawing.render import DrawingError, drawing_figure, svg_text
+from knotsift.extras import MissingExtraError
 
 from .readback import SVG
 
@@ -27,7 +28,7 @@ def test_svg_needs_no_matplotlib(monkeypatch):
     panels = [("trefoil", layout_diagram(Diagram([(1, 5, 2, 4), (3, 1, 4, 6), (5, 3, 6, 2)])))]
     root = ET.fromstring(svg_text(panels))
     assert root.tag == f"{SVG}svg"
-    with pytest.raises(DrawingError, match=r"knotsift\[plots\]"):
+    with pytest.raises(MissingExtraError, match=r"knotsift\[plots\]"):
         drawing_figure(panels)
 
 
