@@ -96,14 +96,15 @@ def signed_polyhedral_codes(max_crossings: int):
                 for signs in product((1, -1), repeat=6):
                     if signs[0] < 0 or all(s > 0 for s in signs):
                         continue
-                    ts = [t if s > 0 else t.mirror() for (_, t), s in zip(choice, signs)]
+                    ts = [t if s > 0 else t.mirror()
+                          for (_, t), s in zip(choice, signs, strict=True)]
                     text = "6* " + ".".join(("-" if s < 0 else "") + str(f)
-                                            for (f, _), s in zip(choice, signs))
+                                            for (f, _), s in zip(choice, signs, strict=True))
                     yield text, total, poly.substitute(ts)
 
 
 def horizontal_montesinos_codes(max_crossings: int):
-    """(text, crossings, Diagram) for ``a,b,c`` followed by ``|e| >= 2`` signs (Conway's ``2,2,2++``).
+    """(text, crossings, Diagram) for ``a,b,c`` and ``|e| >= 2`` trailing signs (``2,2,2++``).
 
     The knot enumerator adds its extra integer tangle reflected (a vertical
     twist); Conway's trailing signs add a horizontal one, which differs for
@@ -125,14 +126,16 @@ def horizontal_montesinos_codes(max_crossings: int):
                 if abs(extra) < 2:
                     continue
                 t = ramification([rational_tangle([s * a for a in parts[i][1]])
-                                  for i, s in zip(combo, signs)]) + integer_tangle(extra)
+                                  for i, s in zip(combo, signs, strict=True)])
+                t = t + integer_tangle(extra)
                 text = ",".join(("-" if s < 0 else "") + "".join(map(str, parts[i][1]))
-                                for i, s in zip(combo, signs)) + ("+" if extra > 0 else "-") * abs(extra)
+                                for i, s in zip(combo, signs, strict=True))
+                text += ("+" if extra > 0 else "-") * abs(extra)
                 yield text, base + abs(extra), t.numerator()
 
 
 def algebraic_codes(max_crossings: int):
-    """(text, crossings, Diagram) for products of a ramification with tangles, in Conway's notation."""
+    """(text, crossings, Diagram) for products of a ramification with tangles (Conway notation)."""
     from knotsift.notations.conway_algebraic import parse_conway_notation
 
     pieces = []

@@ -191,7 +191,7 @@ def build_links(knots: dict[str, tuple[Diagram, bool, int]], directory: Path,
             source=e.source, provenance=e.provenance, confidence=e.confidence,
             sort_order=e.components * 1000 + e.crossing_number * 100 + e.index,
             class_key=key))
-    for key, names in by_key.items():
+    for names in by_key.values():
         if len(names) > 1:
             problems.append(f"links {', '.join(names)} share every invariant up to orientation "
                             "and mirror image (a duplicated construction?)")
@@ -234,7 +234,11 @@ def _check_entry(e: LinkEntry, d: Diagram, ref: Diagram, fp: LinkFingerprint) ->
 
 def _extra_entries(primes: list[BuiltLink], knots: dict, max_crossings: int
                    ) -> list[BuiltLink]:
-    """Split unions, connected sums with small pieces, and T(2, n) beyond the table."""
+    """Split unions, connected sums with small pieces, and T(2, n) beyond the table.
+
+    A mirrored summand is written in parentheses, ``4^2_1#(3_1*)``, so that the
+    mirror mark at the end of a label always means the whole link's mirror image.
+    """
     from knotsift.notations.braid import parse_braid
 
     from .link_enumeration import unoriented_link_key
@@ -282,7 +286,7 @@ def _extra_entries(primes: list[BuiltLink], knots: dict, max_crossings: int
                 continue
             for kmir in ((False,) if amph else (False, True)):
                 k = kd.mirror() if kmir else kd
-                klabel = kname + (MIRROR_MARK if kmir else "")
+                klabel = f"({kname}{MIRROR_MARK})" if kmir else kname
                 for comp in range(2):
                     edge = p.diagram.components()[comp][0]
                     add(f"{p.name}#{klabel}" + (f"@{comp + 1}" if comp else ""), "composite",
@@ -297,7 +301,7 @@ def _extra_entries(primes: list[BuiltLink], knots: dict, max_crossings: int
             for comp in range(2):
                 for qmir in (False, True):
                     qd = q.diagram.mirror() if qmir else q.diagram
-                    qlabel = q.name + (MIRROR_MARK if qmir else "")
+                    qlabel = f"({q.name}{MIRROR_MARK})" if qmir else q.name
                     edge = p.diagram.components()[comp][0]
                     add(f"{p.name}#{qlabel}" + (f"@{comp + 1}" if comp else ""), "composite",
                         p.diagram.connected_sum(qd, edge=edge),

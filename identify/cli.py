@@ -76,7 +76,7 @@ def _cmd_identify(args) -> int:
     for label, text in items:
         try:
             r = identify(text, args.notation, table=table, neighbours=args.neighbours,
-                         label=label)
+                         label=label, expect=getattr(args, "expect", None))
         except KnotsiftError as exc:
             if args.debug:
                 raise
@@ -174,6 +174,9 @@ def _parser() -> argparse.ArgumentParser:
                    help="a file with one code per line ('label<TAB>code' allowed); repeatable")
     q.add_argument("--demo", action="store_true",
                    help="run on the built-in demo batch of transcribed plasmid micrographs")
+    q.add_argument("--expect", choices=("knot", "link"),
+                   help="require a knot (one component) or a link (two or more); other "
+                        "inputs are reported as errors")
     q.add_argument("--neighbours", action="store_true",
                    help="also list table knots one crossing change away")
     q.add_argument("--json", action="store_true", help="machine-readable output (see README)")

@@ -55,6 +55,7 @@ class IdentifyResult:
     resolutions: list[dict] | None = None
     neighbours: list[dict] | None = None
     error: str | None = None
+    link: dict | None = None
 
     @property
     def name(self) -> str | None:
@@ -79,6 +80,7 @@ class IdentifyResult:
             "neighbours": self.neighbours,
             "notes": list(self.notes),
             "error": self.error,
+            "link": self.link,
         }
 
     def to_text(self) -> str:
@@ -117,6 +119,8 @@ class IdentifyResult:
                 share = f"   [{sep['count']} table entr{'y' if sep['count'] == 1 else 'ies'}]" \
                     if sep else ""
                 lines.append(f"  {label:<11} {self.invariants[key]}{share}")
+        if self.link:
+            lines.extend(_link_lines(self.link, self.invariants))
         if self.resolutions:
             lines.append("  resolutions of the uncertain crossings:")
             for r in self.resolutions:
@@ -129,3 +133,20 @@ class IdentifyResult:
         for note in self.notes:
             lines.append(f"  note: {note}")
         return "\n".join(lines)
+
+
+def _link_lines(link: dict, invariants: dict) -> list[str]:
+    """The link section of the readable report (components numbered from 1)."""
+    m = link["components"]
+    lines = [f"  components: {m}; types: {', '.join(link['component_types'])}"]
+    lk = link["linking_matrix"]
+    pairs = [f"{a + 1}-{b + 1}: {lk[a][b]}" for a in range(m) for b in range(a + 1, m)]
+    lines.append("  linking numbers: " + ", ".join(pairs))
+    if link.get("triple_linking_number") is not None:
+        lines.append(f"  triple linking number mu(123): {link['triple_linking_number']}")
+    for text in link.get("orientation", []):
+        lines.append(f"  orientation class {text}")
+    for s in link.get("sublinks", []):
+        a, b = s["components"]
+        lines.append(f"  components {a + 1} and {b + 1} alone: {s['type']}")
+    return lines

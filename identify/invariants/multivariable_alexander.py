@@ -40,7 +40,7 @@ def normal_form(poly: Poly) -> Poly:
         return {}
     n = len(next(iter(poly)))
     low = [min(e[i] for e in poly) for i in range(n)]
-    shifted = {tuple(a - b for a, b in zip(e, low)): c for e, c in poly.items()}
+    shifted = {tuple(a - b for a, b in zip(e, low, strict=True)): c for e, c in poly.items()}
     top = max(shifted)
     sign = 1 if shifted[top] > 0 else -1
     return {e: sign * shifted[e] for e in sorted(shifted, reverse=True)}
