@@ -376,4 +376,4 @@ def _rows(build: LinkBuild) -> None:
                 "alexander": t["alexander"], "determinant": fp.determinant,
                 "signature": fp.signature, "triple": t["triple"],
                 "component_jones": t["component_jones"], "fingerprint": fp.key(),
-                "pd_code": json.dumps(d.pd_code())})
+                "pd_code": json.dumps(d.pd_code()), "free_loops": d.free_loops})

@@ -23,7 +23,8 @@ read-only here.  Users may query it with plain SQL; the schema is:
     the mirror image), reversed, mirrored, the link invariants in canonical
     text (Jones, sorted linking numbers, multivariable Alexander polynomial,
     determinant, signature, |mu(123)|, each component's Jones polynomial),
-    the whole link fingerprint key and a PD code.
+    the whole link fingerprint key, a PD code and its circles without crossings
+    (free_loops).
 ``coincidences``
     for each invariant and each value shared by several forms: the labels.
 ``metadata``
@@ -132,6 +133,7 @@ def schema():
         sa.Column("component_jones", sa.Text, nullable=False),
         sa.Column("fingerprint", sa.Text, nullable=False, index=True),
         sa.Column("pd_code", sa.Text, nullable=False),
+        sa.Column("free_loops", sa.Integer, nullable=False),
     )
     sa.Table(
         "coincidences", md,
@@ -181,14 +183,21 @@ class LinkForm:
     component_jones: str
     fingerprint: str
     pd_code: str
+    free_loops: int
 
     def pd(self) -> list[list[int]]:
         return json.loads(self.pd_code)
 
+    def diagram(self):
+        """The stored diagram of this form (PD code and circles without crossings)."""
+        from .diagram import Diagram
+
+        return Diagram(self.pd(), free_loops=self.free_loops)
+
 
 _LINK_FORM_COLUMNS = ("label, name, is_reference, reversed, mirrored, components, jones, "
                       "linking, alexander, determinant, signature, triple, component_jones, "
-                      "fingerprint, pd_code")
+                      "fingerprint, pd_code, free_loops")
 
 
 def default_table_path() -> Path:

@@ -47,7 +47,7 @@ def test_every_table_link_found_scrambled_and_reoriented(table):
         if row["crossing_number"] > 8:
             continue
         form = rng.choice(table.link_forms_of(row["name"]))
-        d = Diagram(form.pd(), free_loops=0 if form.pd() else row["components"])
+        d = form.diagram()
         m = d.number_of_components()
         flip = {k for k in range(m) if rng.random() < 0.5}
         if d.number_of_crossings():

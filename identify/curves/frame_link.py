@@ -32,8 +32,23 @@ def _raw_indices(diagram: Diagram, ring_components: list[int | None]) -> list[in
     return out
 
 
+def _reduced(diagram: Diagram) -> Diagram:
+    """Nugatory crossings and Reidemeister II bigons removed, keeping the original edge labels
+    (a surviving label still names its ring; :func:`knotsift.simplify.simplify` renumbers)."""
+    from ..simplify import remove_bigon, remove_nugatory
+
+    current = diagram
+    while True:
+        nxt = remove_nugatory(current)
+        if nxt is None:
+            nxt = remove_bigon(current)
+        if nxt is None:
+            return current
+        current = nxt
+
+
 def _simplified_indices(diagram: Diagram, simple: Diagram, raw: list[int]) -> list[int]:
-    """Each ring's component index in the simplified diagram (surviving labels are original)."""
+    """Each ring's component index in the reduced diagram (its labels are original ones)."""
     raw_of = diagram.component_of_label()
     ring_of_raw = {r: k for k, r in enumerate(raw)}
     out: list[int | None] = [None] * len(raw)
@@ -66,7 +81,8 @@ def frame_link(diagram: Diagram, ring_components: list[int | None], ids: list[st
     dict
         ``status``, ``type`` (matched label(s) or "not in table (V = ...)"),
         ``candidates``, ``invariants``, ``rings``, ``split_parts`` (ring ids
-        of each visibly separate part), ``sublinks`` (each pair of rings:
+        of each part that falls apart in the projection once nugatory
+        crossings and Reidemeister II bigons are removed), ``sublinks`` (each pair of rings:
         the type of the two-ring link), ``triple_linking_number``, ``notes``.
     """
     from ..identification import _label
@@ -77,10 +93,11 @@ def frame_link(diagram: Diagram, ring_components: list[int | None], ids: list[st
     raw = _raw_indices(diagram, ring_components)
     out: dict = {"rings": list(ids), "status": None, "type": None, "candidates": [],
                  "invariants": {}, "notes": []}
-    simple = simplify(diagram)
-    smap = _simplified_indices(diagram, simple, raw)
+    reduced = _reduced(diagram)
+    smap = _simplified_indices(diagram, reduced, raw)
     by_simple = {s: ids[k] for k, s in enumerate(smap)}
-    out["split_parts"] = [[by_simple[s] for s in part] for part in split_parts(simple)]
+    out["split_parts"] = [[by_simple[s] for s in part] for part in split_parts(reduced)]
+    simple = simplify(reduced)
     crossing_pairs = set()
     comp = diagram.component_of_label()
     for x in diagram.crossings:

@@ -13,7 +13,6 @@ from knotsift.data_build.link_enumeration import (
     unoriented_link_key,
 )
 from knotsift.data_build.sources import reference_dir
-from knotsift.diagram import Diagram
 from knotsift.errors import TableError
 from knotsift.invariants.link_fingerprint import link_fingerprint, oriented_link_fingerprints
 from knotsift.notations.conway_algebraic import parse_conway_notation
@@ -56,7 +55,7 @@ def test_stored_link_forms_recompute(table):
         if row["kind"] != "prime":
             continue
         for form in table.link_forms_of(row["name"]):
-            assert link_fingerprint(Diagram(form.pd())).key() == form.fingerprint, form.label
+            assert link_fingerprint(form.diagram()).key() == form.fingerprint, form.label
 
 
 def test_every_orientation_and_mirror_stored(table):
@@ -84,7 +83,7 @@ def test_enumerator_through_five_crossings(table):
     names = {}
     for row in table.links():
         form = table.link_forms_of(row["name"])[0]
-        d = Diagram(form.pd(), free_loops=0 if form.pd() else row["components"])
+        d = form.diagram()
         names[unoriented_link_key(simplify(d))[0]] = row["name"]
     found = sorted((c.min_crossings, names.get(k, "?")) for k, c in classes.items()
                    if c.min_crossings <= 5)
