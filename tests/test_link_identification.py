@@ -104,10 +104,11 @@ def test_split_union_identified(table):
 
 
 def test_link_beyond_table(table):
-    """A 3-component link of many crossings is not in the table and the notes say why."""
-    r = identify("braid: 1 1 1 2 2 2 1 1 1 2 2 2", table=table)
-    if r.status == "not in table":
-        assert any("link table lists every prime link of 3 components" in n for n in r.notes)
+    """The torus link T(3,6), 3 components and 12 crossings, is not in the table and the notes
+    say what the table holds."""
+    r = identify("braid: 1 2 1 2 1 2 1 2 1 2 1 2", table=table)
+    assert r.status == "not in table" and r.invariants["components"] == "3"
+    assert any("link table lists every prime link of 3 components" in n for n in r.notes)
 
 
 def test_link_where_knot_required_and_reverse(table):

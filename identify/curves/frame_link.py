@@ -133,6 +133,9 @@ def frame_link(diagram: Diagram, ring_components: list[int | None], ids: list[st
         out["orientation"] = info["orientation"]
     if info.get("name_confidence"):
         out["name_confidence"] = info["name_confidence"]
-    out["notes"] = [n.replace("split: the diagram falls into separate pieces",
-                              "split: the rings fall into separate parts") for n in res.notes]
+    notes = [n for n in res.notes if not n.startswith("split: the diagram falls")]
+    if len(out["split_parts"]) > 1:
+        notes.insert(0, "split: the rings fall into separate parts " + ", ".join(
+            "{" + ", ".join(p) + "}" for p in out["split_parts"]))
+    out["notes"] = notes
     return out

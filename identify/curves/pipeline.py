@@ -178,7 +178,11 @@ class FrameResult:
             lines.append(f"  linking number of rings {lk['a']} and {lk['b']}: "
                          f"{lk['linking_number']}")
         if self.link:
-            lines.append(f"  the rings as one link: {self.link['type'] or self.link['status']}")
+            cands = self.link.get("candidates") or []
+            alias = (f" ({', '.join(cands[0]['aliases'])})"
+                     if len(cands) == 1 and cands[0]["aliases"] else "")
+            lines.append(f"  the rings as one link: {self.link['type'] or self.link['status']}"
+                         f"{alias}")
             parts = self.link.get("split_parts", [])
             if len(parts) > 1:
                 lines.append("    separate parts: " + "; ".join(", ".join(p) for p in parts))
