@@ -5,7 +5,7 @@ Prints, all measured in this one run on this machine:
 1. a frame of 3 rings of 1,000 beads each (the Borromean rings as three
    perpendicular ellipses, with noise), identified as a link end to end:
    median seconds (target < 1 s);
-2. the same for a 3-ring chain (two linked pairs) and for a 10-noded catenane
+2. the same for a 3-ring chain (two linked pairs) and for a 6-noded catenane
    plus a free ring;
 3. the share of that time spent on the whole-link step (the link fingerprint
    and the two-ring sublinks) against the rings typed one by one;
@@ -44,9 +44,9 @@ def borromean(n: int, rng) -> list[np.ndarray]:
 
 def chain3(n: int, rng) -> list[np.ndarray]:
     s = np.linspace(0, 2 * np.pi, n, endpoint=False)
-    a = np.stack([np.cos(s), np.sin(s), 0 * s], 1)
+    a = np.stack([0.8 * np.cos(s), 0.8 * np.sin(s), 0 * s], 1)
     b = np.stack([1 + np.cos(s), 0 * s, np.sin(s)], 1)
-    c = np.stack([2 + np.cos(s), np.sin(s), 0 * s], 1)
+    c = np.stack([2 + 0.8 * np.cos(s), 0.8 * np.sin(s), 0 * s], 1)
     return [x + rng.normal(scale=0.002, size=x.shape) for x in (a, b, c)]
 
 
@@ -54,7 +54,7 @@ def catenane_and_ring(n: int, rng) -> list[np.ndarray]:
     s = np.linspace(0, 2 * np.pi, n, endpoint=False)
     out = []
     for k in range(2):
-        th = 5 * s + k * np.pi
+        th = 3 * s + k * np.pi
         rho = 2 + np.cos(th)
         out.append(np.stack([rho * np.cos(s), rho * np.sin(s), np.sin(th)], 1))
     out.append(np.stack([np.cos(s) + 20, np.sin(s), 0 * s], 1))
@@ -80,7 +80,7 @@ def main() -> None:
     rng = np.random.default_rng(7)
     timed(borromean(200, rng), table, 1)  # warm-up: imports, table
     for name, make in (("Borromean rings", borromean), ("3-ring chain", chain3),
-                       ("10-noded catenane + free ring", catenane_and_ring)):
+                       ("6-noded catenane + free ring", catenane_and_ring)):
         rings = make(1000, rng)
         whole, r = timed(rings, table, args.repeats)
         alone, _ = timed(rings, table, args.repeats, linking=False)
