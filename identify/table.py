@@ -280,17 +280,21 @@ class ReferenceTable:
             self._forms_cache = self._forms("1 = 1", ())
         return self._forms_cache
 
-    def knot(self, name: str) -> dict | None:
-        cur = self._db.execute("SELECT * FROM knots WHERE name = ?", (name,))
-        row = cur.fetchone()
-        if row is None:
-            return None
-        return dict(zip([c[0] for c in cur.description], row))
-
-    def knots(self) -> list[dict]:
-        cur = self._db.execute("SELECT * FROM knots ORDER BY sort_order")
+    def _entries(self, table: str, name: str | None = None) -> list[dict]:
+        """Rows of ``knots`` or ``links`` (one name, or all in table order) as dicts."""
+        if name is None:
+            cur = self._db.execute(f"SELECT * FROM {table} ORDER BY sort_order")
+        else:
+            cur = self._db.execute(f"SELECT * FROM {table} WHERE name = ?", (name,))
         cols = [c[0] for c in cur.description]
         return [dict(zip(cols, r)) for r in cur.fetchall()]
+
+    def knot(self, name: str) -> dict | None:
+        found = self._entries("knots", name)
+        return found[0] if found else None
+
+    def knots(self) -> list[dict]:
+        return self._entries("knots")
 
     def names_and_aliases(self) -> list[tuple[str, str]]:
         """(text, name) pairs for fuzzy name look-up: every name and every alias."""
@@ -323,16 +327,11 @@ class ReferenceTable:
         return self._link_forms("jones = ?", (jones,))
 
     def link(self, name: str) -> dict | None:
-        cur = self._db.execute("SELECT * FROM links WHERE name = ?", (name,))
-        row = cur.fetchone()
-        if row is None:
-            return None
-        return dict(zip([c[0] for c in cur.description], row))
+        found = self._entries("links", name)
+        return found[0] if found else None
 
     def links(self) -> list[dict]:
-        cur = self._db.execute("SELECT * FROM links ORDER BY sort_order")
-        cols = [c[0] for c in cur.description]
-        return [dict(zip(cols, r)) for r in cur.fetchall()]
+        return self._entries("links")
 
     def close(self) -> None:
         self._db.close()

@@ -13,23 +13,9 @@ from knotsift.data_build.link_enumeration import (
     unoriented_link_key,
 )
 from knotsift.data_build.sources import reference_dir
-from knotsift.errors import TableError
 from knotsift.invariants.link_fingerprint import link_fingerprint, oriented_link_fingerprints
 from knotsift.notations.conway_algebraic import parse_conway_notation
 from knotsift.simplify import simplify
-
-
-@pytest.fixture(scope="module")
-def table():
-    from knotsift.table import open_table
-
-    try:
-        t = open_table()
-    except TableError as exc:
-        pytest.skip(f"no reference table ({exc})")
-    if not t.links():
-        pytest.skip("the reference table has no links yet")
-    return t
 
 
 def _recalled_counts() -> dict[tuple[int, int], int]:
@@ -38,30 +24,30 @@ def _recalled_counts() -> dict[tuple[int, int], int]:
                 for r in csv.DictReader(fh)}
 
 
-def test_prime_link_counts_match_published(table):
+def test_prime_link_counts_match_published(link_table):
     """Prime links of 2 and 3 components by crossing number, through 8 crossings: 1, 1, 1, 3,
     8, 16 and 3, 1, 10 (Rolfsen 1976, Knots and Links, Appendix C; from memory)."""
     want = _recalled_counts()
     assert want[(2, 8)] == 16 and want[(3, 8)] == 10
-    got = Counter((r["components"], r["crossing_number"]) for r in table.links()
+    got = Counter((r["components"], r["crossing_number"]) for r in link_table.links()
                   if r["kind"] == "prime")
     assert dict(got) == want
-    assert table.metadata["link_complete_through"] == "8"
+    assert link_table.metadata["link_complete_through"] == "8"
 
 
-def test_stored_link_forms_recompute(table):
+def test_stored_link_forms_recompute(link_table):
     """Every stored prime-link form's key is what its PD code gives, computed directly."""
-    for row in table.links():
+    for row in link_table.links():
         if row["kind"] != "prime":
             continue
-        for form in table.link_forms_of(row["name"]):
+        for form in link_table.link_forms_of(row["name"]):
             assert link_fingerprint(form.diagram()).key() == form.fingerprint, form.label
 
 
-def test_every_orientation_and_mirror_stored(table):
+def test_every_orientation_and_mirror_stored(link_table):
     """2 components: 4 forms (2 orientation classes x mirror); 3 components: 8."""
-    for row in table.links():
-        forms = table.link_forms_of(row["name"])
+    for row in link_table.links():
+        forms = link_table.link_forms_of(row["name"])
         assert len(forms) == 2 ** row["components"]
         assert sum(f.is_reference for f in forms) == 1
 
@@ -76,13 +62,13 @@ def test_derived_forms_equal_direct(code):
         assert derived[(rev, mir)].key() == link_fingerprint(form).key()
 
 
-def test_enumerator_through_five_crossings(table):
+def test_enumerator_through_five_crossings(link_table):
     """The name-free enumerator through 5 crossings finds exactly the Hopf link, T(2,4), the
     Whitehead link, the 3-ring chain and the Hopf link summed with a trefoil."""
     classes = enumerate_link_classes(5)
     names = {}
-    for row in table.links():
-        form = table.link_forms_of(row["name"])[0]
+    for row in link_table.links():
+        form = link_table.link_forms_of(row["name"])[0]
         d = form.diagram()
         names[unoriented_link_key(simplify(d))[0]] = row["name"]
     found = sorted((c.min_crossings, names.get(k, "?")) for k, c in classes.items()
