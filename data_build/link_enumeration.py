@@ -18,7 +18,7 @@ from itertools import product
 
 from knotsift.diagram import Diagram
 from knotsift.errors import KnotsiftError
-from knotsift.invariants.link_fingerprint import oriented_link_fingerprints
+from knotsift.invariants.link_fingerprint import link_fingerprint, oriented_link_fingerprints
 from knotsift.invariants.linking import reverse_components, split_parts
 from knotsift.simplify import simplify
 
@@ -197,6 +197,7 @@ def enumerate_link_classes(max_crossings: int = 8, max_components: int = 3,
     if braids:
         sources.append(("braid", braid_codes(max_crossings)))
     classes: dict[str, EnumeratedLink] = {}
+    known: dict[str, str] = {}  # oriented key -> class key, so a known class costs one key
     seen_codes: set = set()
     for kind, gen in sources:
         for text, n, diagram in gen:
@@ -213,7 +214,11 @@ def enumerate_link_classes(max_crossings: int = 8, max_components: int = 3,
                 continue
             seen_codes.add(code)
             try:
-                key, prints = unoriented_link_key(d)
+                key = known.get(link_fingerprint(d, simplified=True).key())
+                prints = None
+                if key is None:  # a new class: every orientation and mirror image
+                    key, prints = unoriented_link_key(d)
+                    known.update((fp.key(), key) for fp in prints.values())
             except KnotsiftError:
                 continue
             c = min(n, d.number_of_crossings())

@@ -118,12 +118,13 @@ def link_forms(name: str, diagram: Diagram) -> tuple[Diagram, list]:
     scored = []
     for rev, mir, form in oriented_forms(d):
         fp = prints[(rev, mir)]
-        scored.append(((-fp.total_linking(), fp.signature, fp.key()), form))
-    ref = min(scored, key=lambda s: s[0])[1]
-    prints = oriented_link_fingerprints(ref, simplified=True)
+        scored.append(((-fp.total_linking(), fp.signature, fp.key()), rev, mir, form))
+    _, ref_rev, ref_mir, ref = min(scored, key=lambda s: s[0])
     forms = []
     for rev, mir, form in oriented_forms(ref):
-        forms.append((_orientation_label(name, rev, mir), rev, mir, form, prints[(rev, mir)]))
+        # the same form of d: reversals and mirror images compose (component 1 never reversed)
+        of_d = (tuple(sorted(set(rev) ^ set(ref_rev))), mir != ref_mir)
+        forms.append((_orientation_label(name, rev, mir), rev, mir, form, prints[of_d]))
     return ref, forms
 
 
@@ -180,9 +181,7 @@ def build_links(knots: dict[str, tuple[Diagram, bool, int]], directory: Path,
         if issue:
             problems.append(f"{e.name} (line {e.line}, conway: {e.construction}): {issue}")
             continue
-        from .link_enumeration import unoriented_link_key
-
-        key = unoriented_link_key(ref)[0]
+        key = min(fp.key() for *_, fp in forms)  # the class key: smallest oriented key
         by_key[key].append(e.name)
         built.append(BuiltLink(
             name=e.name, kind="prime", components=e.components,
@@ -241,19 +240,17 @@ def _extra_entries(primes: list[BuiltLink], knots: dict, max_crossings: int
     """
     from knotsift.notations.braid import parse_braid
 
-    from .link_enumeration import unoriented_link_key
-
     out: list[BuiltLink] = []
     seen = {p.class_key for p in primes}
     order = 9000
 
     def add(name, kind, diagram, crossings, summands, construction, aliases=()):
         nonlocal order
-        key = unoriented_link_key(simplify(diagram))[0]
+        ref, forms = link_forms(name, diagram)
+        key = min(fp.key() for *_, fp in forms)
         if key in seen:
             return
         seen.add(key)
-        ref, forms = link_forms(name, diagram)
         order += 1
         out.append(BuiltLink(
             name=name, kind=kind, components=diagram.number_of_components(),
