@@ -110,6 +110,21 @@ def _cmd_show(args) -> int:
     from .table import open_table
 
     table = open_table(args.table)
+    from .link_entry import describe_link, find_link, link_entry_text
+
+    link = find_link(args.name, table)
+    if link is not None:
+        info = describe_link(link, table)
+        if args.json:
+            json.dump(info, sys.stdout, indent=2)
+            print()
+        else:
+            print(link_entry_text(info))
+        return 0
+    if "^" in args.name:
+        print(f"knotsift show: no link named {args.name!r} (the link table holds links of 2 and "
+              "3 components through 8 crossings, named like 5^2_1)", file=sys.stderr)
+        return 1
     matches = find_name(args.name, table)
     if not matches:
         print(f"knotsift show: no table entry resembles {args.name!r}", file=sys.stderr)

@@ -119,3 +119,15 @@ def test_cli_expect_flag(link_table, capsys):
     assert "a knot (one component) is required here" in err.out + err.err
     assert main(["identify", "braid: 1 1 1 1"]) == 0
     assert "4^2_1" in capsys.readouterr().out
+
+
+def test_cli_show_link(link_table, capsys):
+    """`knotsift show` finds a link by name or alias and lists its forms; an unknown link name
+    is not matched loosely to a knot."""
+    from knotsift.cli import main
+
+    assert main(["show", "Whitehead link"]) == 0
+    out = capsys.readouterr().out
+    assert out.startswith("5^2_1") and "5^2_1~2*" in out
+    assert main(["show", "9^2_1"]) == 1
+    assert "no link named '9^2_1'" in capsys.readouterr().err
