@@ -18,6 +18,9 @@ from .table import ReferenceTable
 __all__ = ["identify_link_diagram", "match_link", "link_label", "link_summary",
            "UNLINKED_CAVEAT"]
 
+#: Two-component sublinks are listed for links of at most this many components.
+MAX_SUBLINK_COMPONENTS = 8
+
 LINK_EVIDENCE_NOTE = ("a match of invariants is evidence, not proof: different links can share "
                       "all of these invariants")
 UNLINKED_CAVEAT = ("a linking number of 0 does not mean unlinked: the Whitehead link and the "
@@ -95,7 +98,7 @@ def link_summary(simple: Diagram, table: ReferenceTable, sublinks: bool = True) 
     out: dict = {"components": m, "linking_matrix": linking_matrix(simple),
                  "split_parts": split_parts(simple)}
     out["component_types"] = [_knot_label(sublink(simple, [k]), table) for k in range(m)]
-    if sublinks and m >= 3:
+    if sublinks and 3 <= m <= MAX_SUBLINK_COMPONENTS:
         out["sublinks"] = [{"components": [a, b],
                             "type": link_label(sublink(simple, [a, b]), table)}
                            for a, b in combinations(range(m), 2)]

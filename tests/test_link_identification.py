@@ -131,3 +131,11 @@ def test_cli_show_link(link_table, capsys):
     assert out.startswith("5^2_1") and "5^2_1~2*" in out
     assert main(["show", "9^2_1"]) == 1
     assert "no link named '9^2_1'" in capsys.readouterr().err
+
+
+def test_many_components_keyed_without_every_order(link_table):
+    """A closed braid of many strands (13 components) is keyed without trying every order of
+    its components, and reported as beyond the link table."""
+    r = identify("braid: 1 1 3 3 5 5 7 7 9 9 11 11 13", table=link_table)
+    assert r.status == "not in table" and r.invariants["components"] == "13"
+    assert r.invariants["linking"].startswith("sorted ")

@@ -86,10 +86,18 @@ class LinkFingerprint:
         return sum(int(v) for v in self.linking.split()) if self.linking else 0
 
 
+#: Up to this many components the key is written for the best order of the components; above
+#: it (m! orders), the linking numbers are sorted and the Alexander polynomial left out.
+MAX_ORDERED_COMPONENTS = 5
+
+
 def _canonical(lk: list[list[int]], poly: dict | None) -> tuple[str, str]:
     from .multivariable_alexander import permuted, polynomial_text
 
     m = len(lk)
+    if m > MAX_ORDERED_COMPONENTS:  # m! orders are too many: sorted linking numbers only
+        entries = sorted(lk[a][b] for a in range(m) for b in range(a + 1, m))
+        return "sorted " + " ".join(map(str, entries)), ""
     best = None
     for order in permutations(range(m)):
         entries = " ".join(str(lk[order[a]][order[b]]) for a in range(m) for b in range(a + 1, m))
