@@ -78,6 +78,7 @@ class BuildReport:
     blind_chiral: list[str]
     enumeration: dict = field(default_factory=dict)
     seconds: float = 0.0
+    links: dict = field(default_factory=dict)
 
     def summary(self) -> str:
         lines = [f"wrote {self.path}",
@@ -100,6 +101,18 @@ class BuildReport:
                          f"{e['classes_by_crossings']}; {e['named_primes_found']} of "
                          f"{e['named_primes']} named primes found, {e['unnamed_classes']} "
                          "classes without a name")
+        if self.links:
+            lk = self.links
+            lines.append("prime links by components:crossings: " + ", ".join(
+                f"{k}: {n}" for k, n in lk["counts"].items()))
+            lines.append(f"link table: {lk['entries']} links (primes, split unions, connected "
+                         f"sums, T(2,n) extras) in {lk['forms']} oriented forms")
+            e = lk.get("enumeration") or {}
+            if e:
+                lines.append(f"link enumerator: {e['named_primes_found']} of {e['named_primes']} "
+                             f"named primes found, {e['composite_or_split_by_jones_unlisted']} "
+                             "unlisted classes read as composite or split by their Jones "
+                             f"polynomial, {e['unnamed_classes']} unexplained")
         lines.append(f"build time {self.seconds:.1f} s")
         return "\n".join(lines)
 
@@ -228,7 +241,7 @@ def _check_enumeration(built: list[BuiltKnot], max_crossings: int, show_progress
 
 def build_table(output: str | Path, max_crossings: int = 10, keep_going: bool = False,
                 sources: ReferenceSources | None = None, show_progress: bool | None = None,
-                enumerate_check: bool = True) -> BuildReport:
+                enumerate_check: bool = True, links: bool = True) -> BuildReport:
     """Build the reference table of knots through ``max_crossings`` crossings.
 
     Parameters
@@ -240,6 +253,9 @@ def build_table(output: str | Path, max_crossings: int = 10, keep_going: bool = 
     keep_going : bool
         Leave out entries that fail a check instead of stopping; the table's
         metadata then records them and does not claim completeness.
+    links : bool
+        Also build the link table (links of 2 and 3 components through
+        ``min(max_crossings, 8)`` crossings, see :mod:`knotsift.data_build.links`).
 
     Raises
     ------
@@ -412,13 +428,40 @@ def build_table(output: str | Path, max_crossings: int = 10, keep_going: bool = 
         "amphichiral": int(k.amphichiral), "chirality_basis": k.basis, "summands": k.summands,
         "aliases": "; ".join(k.aliases), "construction": k.construction, "source": k.source,
         "provenance": k.provenance, "sort_order": k.sort_order} for k in everything]
+    link_build = None
+    if links:
+        from .links import build_links
+
+        link_max = min(max_crossings, 8)
+        knot_info = {k.name: (k.diagram, k.amphichiral, k.crossing_number) for k in built}
+        lprogress = Progress(None, "links", enabled=show_progress)
+        link_build = build_links(knot_info, src.directory, link_max,
+                                 enumerate_check=enumerate_check, progress=lprogress)
+        lprogress.close()
+        if link_build.problems and not keep_going:
+            raise BuildError("the link table failed its checks:\n  "
+                             + "\n  ".join(link_build.problems))
+        meta.update({
+            "link_max_crossings": str(link_max),
+            "link_complete_through": "" if link_build.problems else str(link_max),
+            "link_counts": json.dumps(link_build.counts, sort_keys=True),
+            "link_enumeration": json.dumps(link_build.enumeration, sort_keys=True),
+            "link_problems": json.dumps(link_build.problems),
+            "link_reference_rule": "largest total linking number, then smallest signature "
+                                   "(see data_build/links.py)",
+        })
     path = Path(output)
-    _write(path, meta, knot_rows, form_rows, coincidence_rows)
+    _write(path, meta, knot_rows, form_rows, coincidence_rows,
+           link_build.link_rows if link_build else [], link_build.form_rows if link_build else [])
     report = BuildReport(path=path, counts=dict(counts), composites=len(composites),
                          enumeration=enumeration,
                          problems=problems, documented=documented, left_out=left_out,
                          coincidences=reported, blind_chiral=blind,
-                         seconds=time.monotonic() - start)
+                         seconds=time.monotonic() - start,
+                         links=({"counts": link_build.counts, "entries": len(link_build.links),
+                                 "forms": len(link_build.form_rows),
+                                 "enumeration": link_build.enumeration}
+                                if link_build else {}))
     return report
 
 
@@ -434,7 +477,8 @@ def _package_version() -> str:
 
 
 def _write(path: Path, meta: dict, knots: list[dict], forms: list[dict],
-           coincidences: list[dict]) -> None:
+           coincidences: list[dict], links: list[dict] = (), link_forms: list[dict] = ()
+           ) -> None:
     """Write all rows into a new SQLite file, then move it into place atomically."""
     import sqlalchemy as sa
 
@@ -452,6 +496,10 @@ def _write(path: Path, meta: dict, knots: list[dict], forms: list[dict],
             conn.execute(md.tables["forms"].insert(), sorted(forms, key=lambda r: r["label"]))
             if coincidences:
                 conn.execute(md.tables["coincidences"].insert(), coincidences)
+            if links:
+                conn.execute(md.tables["links"].insert(), sorted(links, key=lambda r: r["name"]))
+                conn.execute(md.tables["link_forms"].insert(),
+                             sorted(link_forms, key=lambda r: r["label"]))
         engine.dispose()
         os.chmod(tmp, 0o644)
         os.replace(tmp, path)

@@ -148,7 +148,7 @@ def _cmd_identify(args) -> int:
             if isinstance(text, KnotsiftError):
                 raise text
             r = identify(text, args.notation, table=table, neighbours=args.neighbours,
-                         label=label)
+                         label=label, expect=getattr(args, "expect", None))
         except KnotsiftError as exc:
             if args.debug:
                 raise
@@ -185,7 +185,22 @@ def _cmd_show(args) -> int:
     from .names import resolve_name
     from .table import open_table
 
+    from .link_entry import describe_link, find_link, link_entry_text
+
     table = open_table(args.table)
+    link = find_link(args.name, table)
+    if link is not None:
+        info = describe_link(link, table)
+        if args.json:
+            json.dump(info, sys.stdout, indent=2)
+            print()
+        else:
+            print(link_entry_text(info))
+        return 0
+    if "^" in args.name:
+        print(f"knotsift show: no link named {args.name!r} (the link table holds links of 2 and "
+              "3 components through 8 crossings, named like 5^2_1)", file=sys.stderr)
+        return 1
     found = resolve_name(args.name, table)
     best = found.match
     if best is None:
@@ -261,6 +276,9 @@ def _parser() -> argparse.ArgumentParser:
                    help="a file with one code per line ('label<TAB>code' allowed); repeatable")
     q.add_argument("--demo", action="store_true",
                    help="run on the built-in demo batch of transcribed plasmid micrographs")
+    q.add_argument("--expect", choices=("knot", "link"),
+                   help="require a knot (one component) or a link (two or more); other "
+                        "inputs are reported as errors")
     q.add_argument("--neighbours", action="store_true",
                    help="also list table knots one crossing change away")
     q.add_argument("--json", action="store_true", help="machine-readable output (see README)")

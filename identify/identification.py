@@ -15,7 +15,7 @@ from .invariants.fingerprint import RHO_1_UP_TO, Fingerprint, fingerprint
 from .result import Candidate, IdentifyResult
 from .table import ReferenceTable, open_table
 
-__all__ = ["identify", "identify_diagram", "match_fingerprint", "MAX_UNCERTAIN"]
+__all__ = ["identify", "identify_diagram", "match_fingerprint", "MAX_UNCERTAIN", "EXPECTATIONS"]
 
 #: Uncertain crossings expand into 2^k resolutions; beyond this many it is refused.
 MAX_UNCERTAIN = 12
@@ -174,6 +174,10 @@ def identify_diagram(diagram: Diagram, table: ReferenceTable | None = None,
 
     table = table or open_table()
     simple = simplify(diagram)
+    if simple.number_of_components() >= 2:
+        from .link_identification import identify_link_diagram
+
+        return identify_link_diagram(diagram, simple, table, source, notation)
     fp = fingerprint(simple, simplified=True)
     status, candidates = match_fingerprint(fp, table)
     separation, sep_notes = _separation(fp, table, candidates)
@@ -214,13 +218,21 @@ def _short(candidates: list[Candidate], jones: str) -> str:
     return " or ".join(shown)
 
 
+def _label(d: Diagram, table: ReferenceTable) -> str:
+    """One line naming a diagram's table matches, knot or link."""
+    if d.number_of_components() >= 2:
+        from .link_identification import link_label
+
+        return link_label(d, table)
+    fp = fingerprint(d)
+    return _short(match_fingerprint(fp, table)[1], str(fp.jones))
+
+
 def crossing_change_neighbours(diagram: Diagram, table: ReferenceTable) -> list[dict]:
-    """Table knots one crossing change away: what a single misread crossing could have been."""
+    """Table entries one crossing change away: what a single misread crossing could have been."""
     found: dict[str, list[int]] = {}
     for i in range(diagram.number_of_crossings()):
-        fp = fingerprint(diagram.crossing_change(i))
-        status, cands = match_fingerprint(fp, table)
-        found.setdefault(_short(cands, str(fp.jones)), []).append(i)
+        found.setdefault(_label(diagram.crossing_change(i), table), []).append(i)
     return [{"result": k, "crossings": v} for k, v in sorted(found.items(), key=lambda kv: kv[1])]
 
 
@@ -235,9 +247,18 @@ def _resolutions(diagram: Diagram, uncertain: list[int], table: ReferenceTable
         for bit, i in enumerate(uncertain):
             if mask >> bit & 1:
                 d = d.crossing_change(i)
-        fp = fingerprint(d)
-        status, found = match_fingerprint(fp, table)
-        key = _short(found, str(fp.jones))
+        if d.number_of_components() >= 2:
+            from .invariants.link_fingerprint import link_fingerprint
+            from .link_identification import match_link
+
+            lfp = link_fingerprint(d)
+            found = match_link(lfp, table)[1]
+            key = " or ".join(c.label for c in found) if found else \
+                f"not in table (V = {lfp.jones})"
+        else:
+            fp = fingerprint(d)
+            status, found = match_fingerprint(fp, table)
+            key = _short(found, str(fp.jones))
         counts[key] += 1
         found_by.setdefault(key, found)
     ranked = counts.most_common()
@@ -245,8 +266,32 @@ def _resolutions(diagram: Diagram, uncertain: list[int], table: ReferenceTable
              for k, v in ranked], [c for k, _ in ranked for c in found_by[k]])
 
 
+#: What ``identify(..., expect=...)`` may require of the input.
+EXPECTATIONS = ("knot", "link")
+
+
+def _check_expected(diagram: Diagram, expect: str | None, notation: str) -> None:
+    if expect is None:
+        return
+    if expect not in EXPECTATIONS:
+        raise ValueError(f"expect must be one of {EXPECTATIONS} or None, got {expect!r}")
+    m = diagram.number_of_components()
+    what = f"the {notation} input" if notation else "the input"
+    if expect == "knot" and m != 1:
+        raise DiagramError(f"a knot (one component) is required here, but {what} describes a "
+                           f"{m}-component link ({diagram.number_of_crossings()} crossings); "
+                           "leave out the knot requirement to identify it as a link",
+                           value=m)
+    if expect == "link" and m < 2:
+        raise DiagramError(f"a link of two or more components is required here, but {what} "
+                           f"describes a knot (one component, {diagram.number_of_crossings()} "
+                           "crossings); leave out the link requirement to identify it as a knot",
+                           value=m)
+
+
 def identify(source, notation: str | None = None, *, table: ReferenceTable | None = None,
-             neighbours: bool = False, label: str = "") -> IdentifyResult:
+             neighbours: bool = False, label: str = "", expect: str | None = None
+             ) -> IdentifyResult:
     """Identify a knot given as a diagram or as text in one of the notations.
 
     Parameters
@@ -262,6 +307,10 @@ def identify(source, notation: str | None = None, *, table: ReferenceTable | Non
         Also list the table knots one crossing change away.
     label : str
         A name for the input in reports (file and line, frame).
+    expect : {None, "knot", "link"}
+        Require one component, or at least two; otherwise a DiagramError
+        says what the input is.  Inputs of several components are
+        identified against the link table either way.
 
     Returns
     -------
@@ -281,6 +330,7 @@ def identify(source, notation: str | None = None, *, table: ReferenceTable | Non
     """
     table = table or open_table()
     if isinstance(source, Diagram):
+        _check_expected(source, expect, "")
         return identify_diagram(source, table, neighbours, label, "diagram")
     from .notations.detect import detect_notation, parse_any_with_uncertain, reading_of
 
@@ -292,6 +342,7 @@ def identify(source, notation: str | None = None, *, table: ReferenceTable | Non
             flipped.notes.insert(0, unsure)
         return flipped
     diagram, uncertain = parse_any_with_uncertain(source, used)
+    _check_expected(diagram, expect, used)
     if len(uncertain) > MAX_UNCERTAIN:
         raise DiagramError(f"at most {MAX_UNCERTAIN} crossings may be marked uncertain "
                            f"(2^{MAX_UNCERTAIN} resolutions), got {len(uncertain)}",

@@ -77,6 +77,7 @@ class IdentifyResult(ResultValues):
     resolutions: list[dict] | None = None
     neighbours: list[dict] | None = None
     error: str | None = None
+    link: dict | None = None
     #: What the resolutions range over, for the text report.
     resolved_over: str = "the uncertain crossings"
     #: The diagram that was identified (not part of the JSON); drawn by :meth:`draw`.
@@ -106,6 +107,7 @@ class IdentifyResult(ResultValues):
             "neighbours": self.neighbours,
             "notes": list(self.notes),
             "error": self.error,
+            "link": self.link,
         }
 
     def to_text(self) -> str:
@@ -151,6 +153,8 @@ class IdentifyResult(ResultValues):
                 share = f"   [{sep['count']} table entr{'y' if sep['count'] == 1 else 'ies'}]" \
                     if sep else ""
                 lines.append(f"  {label:<11} {self.invariants[key]}{share}")
+        if self.link:
+            lines.extend(_link_lines(self.link, self.invariants))
         if self.resolutions:
             lines.append(f"  resolutions of {self.resolved_over}:")
             for r in self.resolutions:
@@ -203,3 +207,19 @@ class IdentifyResult(ResultValues):
         except KnotsiftError:  # a diagram that cannot be drawn still leaves the table
             svg = None
         return table + (f'<div style="max-width:18em">{svg}</div>' if svg else "")
+
+def _link_lines(link: dict, invariants: dict) -> list[str]:
+    """The link section of the readable report (components numbered from 1)."""
+    m = link["components"]
+    lines = [f"  components: {m}; types: {', '.join(link['component_types'])}"]
+    lk = link["linking_matrix"]
+    pairs = [f"{a + 1}-{b + 1}: {lk[a][b]}" for a in range(m) for b in range(a + 1, m)]
+    lines.append("  linking numbers: " + ", ".join(pairs))
+    if link.get("triple_linking_number") is not None:
+        lines.append(f"  triple linking number mu(123): {link['triple_linking_number']}")
+    for text in link.get("orientation", []):
+        lines.append(f"  orientation class {text}")
+    for s in link.get("sublinks", []):
+        a, b = s["components"]
+        lines.append(f"  components {a + 1} and {b + 1} alone: {s['type']}")
+    return lines

@@ -13,6 +13,20 @@ read-only here.  Users may query it with plain SQL; the schema is:
     the invariants in canonical text (Jones, Alexander, determinant,
     signature, rho_1, double-cover homology), the whole fingerprint key, a PD
     code.
+``links``
+    one row per named link of several components: name (``2^2_1``, ``5^2_1``,
+    ...), kind (prime / composite / split / torus link), components,
+    crossing_number, alternating, name_confidence (sure / recalled /
+    uncertain: how sure the recalled index within its crossing number is),
+    summands, aliases, construction, source, provenance.
+``link_forms``
+    one row per link, orientation class and mirror image: label (the name,
+    ``~23`` when components 2 and 3 run against the table diagram, ``*`` for
+    the mirror image), reversed, mirrored, the link invariants in canonical
+    text (Jones, sorted linking numbers, multivariable Alexander polynomial,
+    determinant, signature, |mu(123)|, each component's Jones polynomial),
+    the whole link fingerprint key, a PD code and its circles without crossings
+    (free_loops).
 ``coincidences``
     for each invariant and each value shared by several forms: the labels.
 ``metadata``
@@ -32,6 +46,8 @@ from .errors import TableError
 __all__ = [
     "SCHEMA_VERSION",
     "MIRROR_MARK",
+    "REVERSED_MARK",
+    "LinkForm",
     "TableForm",
     "ReferenceTable",
     "open_table",
@@ -39,9 +55,11 @@ __all__ = [
     "schema",
 ]
 
-SCHEMA_VERSION = 2
+SCHEMA_VERSION = 3
 #: Appended to a name for the mirror image of the table's reference diagram.
 MIRROR_MARK = "*"
+#: Followed by component numbers in a link label: those components run backwards.
+REVERSED_MARK = "~"
 
 REBUILD_HINT = "rebuild it with `knotsift build`"
 
@@ -88,6 +106,40 @@ def schema():
         sa.Column("pd_code", sa.Text, nullable=False),
     )
     sa.Table(
+        "links", md,
+        sa.Column("name", sa.Text, primary_key=True),
+        sa.Column("kind", sa.Text, nullable=False),
+        sa.Column("components", sa.Integer, nullable=False),
+        sa.Column("crossing_number", sa.Integer, nullable=False),
+        sa.Column("alternating", sa.Integer, nullable=False),
+        sa.Column("name_confidence", sa.Text, nullable=False),
+        sa.Column("summands", sa.Text, nullable=False),
+        sa.Column("aliases", sa.Text, nullable=False),
+        sa.Column("construction", sa.Text, nullable=False),
+        sa.Column("source", sa.Text, nullable=False),
+        sa.Column("provenance", sa.Text, nullable=False),
+        sa.Column("sort_order", sa.Integer, nullable=False),
+    )
+    sa.Table(
+        "link_forms", md,
+        sa.Column("label", sa.Text, primary_key=True),
+        sa.Column("name", sa.Text, sa.ForeignKey("links.name"), nullable=False, index=True),
+        sa.Column("is_reference", sa.Integer, nullable=False),
+        sa.Column("reversed", sa.Text, nullable=False),
+        sa.Column("mirrored", sa.Integer, nullable=False),
+        sa.Column("components", sa.Integer, nullable=False),
+        sa.Column("jones", sa.Text, nullable=False, index=True),
+        sa.Column("linking", sa.Text, nullable=False),
+        sa.Column("alexander", sa.Text, nullable=False),
+        sa.Column("determinant", sa.Integer, nullable=False),
+        sa.Column("signature", sa.Integer, nullable=False),
+        sa.Column("triple", sa.Text, nullable=False),
+        sa.Column("component_jones", sa.Text, nullable=False),
+        sa.Column("fingerprint", sa.Text, nullable=False, index=True),
+        sa.Column("pd_code", sa.Text, nullable=False),
+        sa.Column("free_loops", sa.Integer, nullable=False),
+    )
+    sa.Table(
         "coincidences", md,
         sa.Column("invariant", sa.Text, primary_key=True),
         sa.Column("value", sa.Text, primary_key=True),
@@ -116,6 +168,42 @@ class TableForm:
 
     def pd(self) -> list[list[int]]:
         return json.loads(self.pd_code)
+
+
+@dataclass(frozen=True)
+class LinkForm:
+    """One orientation class and chirality of one named link, as stored."""
+
+    label: str
+    name: str
+    is_reference: bool
+    reversed: str
+    mirrored: bool
+    components: int
+    jones: str
+    linking: str
+    alexander: str
+    determinant: int
+    signature: int
+    triple: str
+    component_jones: str
+    fingerprint: str
+    pd_code: str
+    free_loops: int
+
+    def pd(self) -> list[list[int]]:
+        return json.loads(self.pd_code)
+
+    def diagram(self):
+        """The stored diagram of this form (PD code and circles without crossings)."""
+        from .diagram import Diagram
+
+        return Diagram(self.pd(), free_loops=self.free_loops)
+
+
+_LINK_FORM_COLUMNS = ("label, name, is_reference, reversed, mirrored, components, jones, "
+                      "linking, alexander, determinant, signature, triple, component_jones, "
+                      "fingerprint, pd_code, free_loops")
 
 
 def default_table_path() -> Path:
@@ -211,17 +299,21 @@ class ReferenceTable:
             self._forms_cache = self._forms("1 = 1", ())
         return self._forms_cache
 
-    def knot(self, name: str) -> dict | None:
-        cur = self._db.execute("SELECT * FROM knots WHERE name = ?", (name,))
-        row = cur.fetchone()
-        if row is None:
-            return None
-        return dict(zip([c[0] for c in cur.description], row))
-
-    def knots(self) -> list[dict]:
-        cur = self._db.execute("SELECT * FROM knots ORDER BY sort_order")
+    def _entries(self, table: str, name: str | None = None) -> list[dict]:
+        """Rows of ``knots`` or ``links`` (one name, or all in table order) as dicts."""
+        if name is None:
+            cur = self._db.execute(f"SELECT * FROM {table} ORDER BY sort_order")
+        else:
+            cur = self._db.execute(f"SELECT * FROM {table} WHERE name = ?", (name,))
         cols = [c[0] for c in cur.description]
         return [dict(zip(cols, r)) for r in cur.fetchall()]
+
+    def knot(self, name: str) -> dict | None:
+        found = self._entries("knots", name)
+        return found[0] if found else None
+
+    def knots(self) -> list[dict]:
+        return self._entries("knots")
 
     def names_and_aliases(self) -> list[tuple[str, str]]:
         """(text, name) pairs for fuzzy name look-up: every name and every alias."""
@@ -236,6 +328,29 @@ class ReferenceTable:
         row = self._db.execute("SELECT labels FROM coincidences WHERE invariant = ? AND value = ?",
                                (invariant, value)).fetchone()
         return row[0].split(",") if row else []
+
+    # -- links -----------------------------------------------------------
+    def _link_forms(self, where: str, args: tuple) -> list[LinkForm]:
+        cur = self._db.execute(
+            f"SELECT {_LINK_FORM_COLUMNS} FROM link_forms WHERE {where} ORDER BY label", args)
+        return [LinkForm(r[0], r[1], bool(r[2]), r[3], bool(r[4]), *r[5:]) for r in cur]
+
+    def link_forms_by_fingerprint(self, key: str) -> list[LinkForm]:
+        """Link forms whose whole link fingerprint equals ``key`` (exact lookup)."""
+        return self._link_forms("fingerprint = ?", (key,))
+
+    def link_forms_of(self, name: str) -> list[LinkForm]:
+        return self._link_forms("name = ?", (name,))
+
+    def link_forms_by_jones(self, jones: str) -> list[LinkForm]:
+        return self._link_forms("jones = ?", (jones,))
+
+    def link(self, name: str) -> dict | None:
+        found = self._entries("links", name)
+        return found[0] if found else None
+
+    def links(self) -> list[dict]:
+        return self._entries("links")
 
     def close(self) -> None:
         self._db.close()

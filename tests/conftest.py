@@ -1,4 +1,4 @@
-"""Hypothesis profiles for the whole suite.
+"""Hypothesis profiles for the whole suite, and the shipped table with its links.
 
 Timing deadlines are off everywhere: the machines that run the suite are
 shared, and a slow example says nothing about correctness (speed is measured
@@ -9,8 +9,24 @@ afresh each time, which is how new counterexamples are found.
 
 import os
 
+import pytest
 from hypothesis import settings
 
 settings.register_profile("local", deadline=None)
 settings.register_profile("ci", deadline=None, derandomize=True)
 settings.load_profile("ci" if os.environ.get("CI") else "local")
+
+
+@pytest.fixture(scope="module")
+def link_table():
+    """The shipped reference table, skipping when it has no link tables yet."""
+    from knotsift.errors import TableError
+    from knotsift.table import open_table
+
+    try:
+        t = open_table()
+    except TableError as exc:
+        pytest.skip(f"no reference table ({exc})")
+    if not t.links():
+        pytest.skip("the reference table has no links yet")
+    return t

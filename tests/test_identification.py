@@ -131,12 +131,18 @@ def test_json_schema():
     assert r["separation"]["jones"]["count"] >= 1
 
 
-def test_link_is_not_in_table():
-    """A 2-component link is reported with its invariants and a note."""
+def test_link_goes_to_the_link_table():
+    """A 2-component link is identified against the link table, with its invariants."""
     r = identify("[[1,3,2,4],[3,1,4,2]]", table=TABLE)
-    assert r.status == "not in table"
+    assert r.name == "2^2_1"
     assert r.invariants["jones"] == "-t^(1/2) - t^(5/2)"
-    assert any("link" in n for n in r.notes)
+
+
+def test_four_component_link_is_not_in_table():
+    """A chain of four rings is reported with its invariants and a note on the table's range."""
+    r = identify("braid: 1 1 2 2 3 3", table=TABLE)
+    assert r.status == "not in table"
+    assert any("4-component link" in n for n in r.notes)
 
 
 def test_unknot_note():

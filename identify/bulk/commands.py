@@ -67,7 +67,15 @@ def _cmd_classify(args) -> int:
 def _cmd_summarise(args) -> int:
     from .plots import plot_spectrum, plot_unknot_probability
     from .resume import ResumeError
-    from .summary import knot_spectrum, read_results, row_unit, spectrum_text, unknot_fit
+    from .summary import (
+        knot_spectrum,
+        link_spectrum,
+        link_spectrum_text,
+        read_results,
+        row_unit,
+        spectrum_text,
+        unknot_fit,
+    )
 
     try:
         df = read_results(args.out)
@@ -77,6 +85,7 @@ def _cmd_summarise(args) -> int:
         print(f"knotsift: {exc}", file=sys.stderr)
         return EXIT_OUTPUT
     spec = knot_spectrum(df, by=args.by, by_filename=args.by_filename, mirrors=args.mirrors)
+    links = link_spectrum(df, by=args.by, by_filename=args.by_filename)
     fit = fit_error = None
     if args.length_column in df.columns and df[args.length_column].nunique() >= 2:
         try:
@@ -99,12 +108,17 @@ def _cmd_summarise(args) -> int:
             written.append(str(plot_unknot_probability(fit, args.plot_length)))
     if args.json:
         records = json.loads(spec.to_json(orient="records"))
-        json.dump({"rows": len(df), "spectrum": records, "unknot_fit": fit,
+        json.dump({"rows": len(df), "spectrum": records,
+                   "link_spectrum": json.loads(links.to_json(orient="records")),
+                   "unknot_fit": fit,
                    "unknot_fit_error": fit_error, "plots": written}, sys.stdout, indent=2)
         print()
     else:
         print(f"{len(df)} rows in {args.out}")
         print(spectrum_text(spec))
+        if len(links):
+            print("link spectrum (rings of a frame as one link; nodes = crossing number):")
+            print(link_spectrum_text(links))
         if fit:
             print(f"P(unknot) = exp(-N/N0): N0 = {fit['N0']:.4g} +- {fit['N0_error']:.2g} "
                   f"(one standard error; {fit['method']}, {len(fit['points'])} lengths)")

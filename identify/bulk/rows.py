@@ -49,6 +49,11 @@ COLUMNS: tuple[tuple[str, str, str], ...] = (
     ("core_start", "int", "first bead of the knotted core (with --core)"),
     ("core_end", "int", "last bead of the knotted core (below core_start when it wraps round)"),
     ("linking", "text", "JSON {other ring: linking number} for the rings of the frame"),
+    ("link", "text", "the rings of the frame (or a code of several components) as one link: "
+                     "matched label(s) with orientation and mirror marks, e.g. 4^2_1~2*"),
+    ("link_type", "text", "that link's name alone, e.g. 4^2_1 (identified links only)"),
+    ("link_components", "int", "number of rings (components) in that link"),
+    ("link_crossings", "int", "crossing number of the identified link: the node number"),
     ("seconds", "float", "time spent on this row (a frame's time is shared by its chains)"),
     ("error", "text", "the message when status is error"),
 )
@@ -134,7 +139,9 @@ def row_from_result(row: dict, result) -> dict:
         row["error"] = result.error
         return row
     cands = result.candidates
-    if result.status == "identified" and cands:
+    if result.link is not None:  # a code of several components: a link, not a knot
+        _link_columns(row, result.status, cands, result.link["components"])
+    elif result.status == "identified" and cands:
         row["knot"] = result.name
         row["knot_type"] = cands[0].name
         row["chirality"] = cands[0].chirality
@@ -153,6 +160,19 @@ def row_from_result(row: dict, result) -> dict:
     if result.resolutions:
         row["resolutions"] = json.dumps(result.resolutions, sort_keys=True)
     return row
+
+
+def _link_columns(row: dict, status: str, candidates, components: int) -> None:
+    """Fill the link columns from a link identification (Candidate objects or dicts)."""
+    def get(c, key):
+        return c[key] if isinstance(c, dict) else getattr(c, key)
+
+    row["link_components"] = components
+    row["link"] = (" or ".join(get(c, "label") for c in candidates) if candidates
+                   else status)
+    if status == "identified" and candidates:
+        row["link_type"] = get(candidates[0], "name")
+        row["link_crossings"] = get(candidates[0], "crossing_number")
 
 
 def _fail(row: dict, exc: BaseException) -> dict:
@@ -194,6 +214,8 @@ def _classify_frame(item, options: ClassifyOptions, table) -> list[dict]:
                            linking=True)
     share = (time.perf_counter() - start) / max(1, len(found.chains))
     links = _linking_by_chain(found.linking)
+    whole = found.link or {}
+    rings = set(whole.get("rings", []))
     rows = []
     for c, result in enumerate(found.chains):
         row = _empty_row(item, c)
@@ -209,6 +231,9 @@ def _classify_frame(item, options: ClassifyOptions, table) -> list[dict]:
             row["core_start"], row["core_end"] = result.core["start"], result.core["end"]
         if result.chain in links:
             row["linking"] = json.dumps(links[result.chain], sort_keys=True)
+        if result.chain in rings:
+            _link_columns(row, whole.get("status") or "error", whole.get("candidates", []),
+                          len(rings))
         row["seconds"] = share   # the frame's time, shared among its chains
         rows.append(row)
     return rows

@@ -20,7 +20,8 @@ import re
 from ..errors import KnotsiftError
 
 __all__ = ["wilson_interval", "Z95", "knot_types", "group_labels", "knot_spectrum",
-           "unknot_points", "unknot_fit", "read_results", "spectrum_text", "row_unit"]
+           "unknot_points", "unknot_fit", "read_results", "spectrum_text", "row_unit",
+           "link_spectrum", "link_spectrum_text"]
 
 #: The two-sided 95% standard normal quantile.
 Z95 = 1.959963984540054
@@ -184,6 +185,72 @@ def knot_spectrum(df, by: str | None = None, by_filename: str | None = None,
                             "high": float("nan"), "failed": failed})
     return pd.DataFrame.from_records(records, columns=["group", "type", "count", "total",
                                                        "fraction", "low", "high", "failed"])
+
+
+def link_spectrum(df, by: str | None = None, by_filename: str | None = None):
+    """Link spectra: per group and number of rings, counts by node number and by link type.
+
+    One count per linked object: per frame for trajectories (its rings form
+    one link), per row for codes.  ``nodes`` is the crossing number of the
+    identified link (the band of a gel separating catenanes by node number);
+    links not identified count under ``nodes`` None with their status.
+    Wilson 95% intervals as for knots, within each (group, number of rings).
+
+    Returns
+    -------
+    pandas.DataFrame
+        Columns group, components, nodes, type, count, total, fraction, low, high.
+    """
+    import pandas as pd
+
+    columns = ["group", "components", "nodes", "type", "count", "total", "fraction", "low",
+               "high"]
+    if "link_components" not in df.columns:
+        return pd.DataFrame(columns=columns)
+    has = df[df["link_components"].notna()]
+    if has.empty:
+        return pd.DataFrame(columns=columns)
+    groups = group_labels(has, by, by_filename)
+    items: dict = {}
+    for idx, row in has.iterrows():
+        key = (row["source"], row["frame"]) if row["kind"] == "frame" else row["key"]
+        if key in items:
+            continue
+        nodes = row["link_crossings"]
+        nodes = None if nodes is None or nodes != nodes else int(nodes)
+        kind = row["link_type"] if isinstance(row["link_type"], str) else str(row["link"])
+        items[key] = (groups[idx], int(row["link_components"]), nodes, kind)
+    records = []
+    by_gc: dict = {}
+    for g, m, nodes, kind in items.values():
+        by_gc.setdefault((g, m), []).append((nodes, kind))
+    for (g, m) in sorted(by_gc, key=lambda gm: (_group_key(gm[0]), gm[1])):
+        entries = by_gc[(g, m)]
+        total = len(entries)
+        counts: dict = {}
+        for nodes, kind in entries:
+            counts[(nodes, kind)] = counts.get((nodes, kind), 0) + 1
+        for (nodes, kind), k in sorted(counts.items(), key=lambda kv: (
+                kv[0][0] is None, kv[0][0] or 0, kv[0][1])):
+            lo, hi = wilson_interval(k, total)
+            records.append({"group": g, "components": m, "nodes": nodes, "type": kind,
+                            "count": k, "total": total, "fraction": k / total, "low": lo,
+                            "high": hi})
+    return pd.DataFrame.from_records(records, columns=columns)
+
+
+def link_spectrum_text(spec) -> str:
+    """The link spectrum as plain text: per group and number of rings, one line per type."""
+    lines = []
+    for (g, m), part in spec.groupby(["group", "components"], sort=False):
+        total = int(part["total"].iloc[0])
+        lines.append(f"{g}, {m} rings: {total} linked objects")
+        width = max([len(str(t)) for t in part["type"]] + [4])
+        for r in part.itertuples():
+            nodes = "   -" if r.nodes is None or r.nodes != r.nodes else f"{int(r.nodes):>4}"
+            lines.append(f"  nodes {nodes}  {r.type:<{width}}  {r.count:>7}  {r.fraction:7.2%}"
+                         f"   95% CI {r.low:.2%} - {r.high:.2%}")
+    return "\n".join(lines)
 
 
 def unknot_points(df, length: str = "n_beads"):

@@ -156,6 +156,9 @@ class FrameResult(FrameValues):
     chains : list of CurveResult
     linking : list of dict
         ``{"a": id, "b": id, "linking_number": int}`` for each pair of rings.
+    link : dict or None
+        The rings as one link (see :func:`knotsift.curves.frame_link.frame_link`):
+        its type, split parts and two-ring sublinks; None with fewer than two rings.
     warnings : list of str
         Reader warnings (chain breaks) and frame-level notes.
     error : str or None
@@ -168,6 +171,7 @@ class FrameResult(FrameValues):
     linking: list[dict] = field(default_factory=list)
     warnings: list[str] = field(default_factory=list)
     error: str | None = None
+    link: dict | None = None
 
     @property
     def failed(self) -> bool:
@@ -176,8 +180,8 @@ class FrameResult(FrameValues):
     def to_dict(self) -> dict:
         return {"source": self.source, "frame": self.frame,
                 "chains": [c.to_dict() for c in self.chains],
-                "linking": list(self.linking), "warnings": list(self.warnings),
-                "error": self.error}
+                "linking": list(self.linking), "link": self.link,
+                "warnings": list(self.warnings), "error": self.error}
 
     def to_text(self) -> str:
         head = f"{self.source}, frame {self.frame}" if self.source else f"frame {self.frame}"
@@ -189,6 +193,19 @@ class FrameResult(FrameValues):
         for lk in self.linking:
             lines.append(f"  linking number of rings {lk['a']} and {lk['b']}: "
                          f"{lk['linking_number']}")
+        if self.link:
+            cands = self.link.get("candidates") or []
+            alias = (f" ({', '.join(cands[0]['aliases'])})"
+                     if len(cands) == 1 and cands[0]["aliases"] else "")
+            lines.append(f"  the rings as one link: {self.link['type'] or self.link['status']}"
+                         f"{alias}")
+            parts = self.link.get("split_parts", [])
+            if len(parts) > 1:
+                lines.append("    separate parts: " + "; ".join(", ".join(p) for p in parts))
+            for s in self.link.get("sublinks", []) if len(self.link["rings"]) > 2 else []:
+                lines.append(f"    rings {s['rings'][0]} and {s['rings'][1]} alone: {s['type']}")
+            for n in self.link.get("notes", []):
+                lines.append(f"    note: {n}")
         for w in self.warnings:
             lines.append(f"  warning: {w}")
         return "\n".join(lines)
@@ -412,8 +429,10 @@ def identify_curve(coords, closed: bool = True, closure: str = "stochastic",
                            table, box=box)
 
 
-def _linking(frame: Frame, rings: list[Chain], seed: int) -> tuple[list[dict], list[str]]:
-    """Pairwise linking numbers of the rings of a frame, from one joint projection."""
+def _linking(frame: Frame, rings: list[Chain], seed: int, table=None
+             ) -> tuple[list[dict], list[str], dict | None]:
+    """Pairwise linking numbers of the rings of a frame, from one joint projection, and
+    (with a table) the rings identified as one link."""
     prep = prepare_chains(rings, where=frame.where)
     chains = [(c.coords, True) for c in prep.chains]
     ids = [c.id for c in rings]
@@ -430,7 +449,16 @@ def _linking(frame: Frame, rings: list[Chain], seed: int) -> tuple[list[dict], l
                 raise CurveError(f"linking number of {ids[a]} and {ids[b]} counted two ways "
                                  "disagrees", where=frame.where)
             out.append({"a": ids[a], "b": ids[b], "linking_number": int(lk)})
-    return out, near
+    link = None
+    if table is not None:
+        from .frame_link import frame_link
+
+        try:
+            link = frame_link(diagram, list(proj.components), ids, table, source=frame.where)
+        except KnotsiftError as exc:
+            link = {"rings": ids, "status": "error", "type": None,
+                    "notes": [f"the rings were not identified as one link: {exc}"]}
+    return out, near, link
 
 
 def identify_frame(frame: Frame, closure: str = "stochastic",
@@ -486,7 +514,7 @@ def identify_frame(frame: Frame, closure: str = "stochastic",
                             "images of the others, which are not counted")
     if linking and len(rings) >= 2:
         try:
-            out.linking, notes = _linking(frame, rings, seed)
+            out.linking, notes, out.link = _linking(frame, rings, seed, table)
             out.warnings.extend(notes)
         except CurveError as exc:
             out.warnings.append(f"linking numbers not computed: {exc}")

@@ -31,6 +31,9 @@ __all__ = [
     "hopf_link",
     "torus_link",
     "unit_bonds",
+    "braid_closure_curves",
+    "borromean_ellipses",
+    "gauss_linking_integral",
     "random_polygon",
 ]
 
@@ -174,3 +177,94 @@ def torus_link(m: int, n: int, R: float = 2.0, r: float = 1.0) -> tuple[np.ndarr
         rho = R + r * np.cos(th)
         out.append(np.stack([rho * np.cos(s), rho * np.sin(s), r * np.sin(th)], axis=1))
     return out[0], out[1]
+
+
+def braid_closure_curves(word: list[int], strands: int, beads: int, R: float = 3.0,
+                         width: float = 1.0, lift: float = 0.5) -> list[np.ndarray]:
+    """The closure of a braid word as space curves, one array per component.
+
+    The strands run once round the z axis; position ``p`` is the radius
+    ``R + p * width``.  In the angular slot of a letter ``+-i`` the strands at
+    positions ``i - 1`` and ``i`` exchange radii, one rising by ``lift`` and the
+    other sinking, so the view along z shows exactly one crossing per letter
+    (common practice: the closed braid drawn on a cylinder).  ``beads`` is the
+    number of beads per strand per turn.
+    """
+    slots = len(word)
+    per = max(beads // slots, 4)
+    tau = np.linspace(0, 1, per, endpoint=False)
+    blend = (1 - np.cos(np.pi * tau)) / 2
+    bump = np.sin(np.pi * tau)
+    pos = list(range(strands))  # pos[s]: position of strand s
+    paths: list[list[np.ndarray]] = [[] for _ in range(strands)]
+    for j, g in enumerate(word):
+        i = abs(g) - 1
+        th = 2 * np.pi * (j + tau) / slots
+        for s in range(strands):
+            p = pos[s]
+            r = np.full(per, R + p * width)
+            z = np.zeros(per)
+            if p in (i, i + 1):
+                q = i + 1 if p == i else i
+                r = R + (p + (q - p) * blend) * width
+                up = (p == i) == (g > 0)
+                z = (lift if up else -lift) * bump
+            paths[s].append(np.stack([r * np.cos(th), r * np.sin(th), z], axis=1))
+        for s in range(strands):
+            if pos[s] == i:
+                pos[s] = i + 1
+            elif pos[s] == i + 1:
+                pos[s] = i
+    # strand s ends at position pos[s], where the strand starting there continues
+    start_at = {s: s for s in range(strands)}
+    seen: set[int] = set()
+    comps = []
+    for s0 in range(strands):
+        if s0 in seen:
+            continue
+        parts, s = [], s0
+        while s not in seen:
+            seen.add(s)
+            parts.extend(paths[s])
+            s = start_at[pos[s]]
+        comps.append(np.concatenate(parts))
+    return comps
+
+
+def borromean_ellipses(n: int, a: float = 2.0, b: float = 1.0) -> list[np.ndarray]:
+    """Three ellipses in the three coordinate planes: the Borromean rings (common practice)."""
+    s = np.linspace(0, 2 * np.pi, n, endpoint=False)
+    c, d, z = a * np.cos(s), b * np.sin(s), np.zeros(n)
+    return [np.stack([c, d, z], axis=1), np.stack([z, c, d], axis=1),
+            np.stack([d, z, c], axis=1)]
+
+
+def gauss_linking_integral(x: np.ndarray, y: np.ndarray, chunk: int = 200) -> float:
+    """The Gauss linking integral of two closed polygons, summed exactly over segment pairs.
+
+    Each pair of segments contributes the solid angle it subtends over 4 pi
+    (Klenin and Langowski 2000, Biopolymers 54, "Computation of writhe in
+    modeling of supercoiled DNA"; from memory); the sum is a float that equals
+    the linking number up to rounding.
+    """
+    p1, p2 = x, np.roll(x, -1, axis=0)
+    total = 0.0
+    for k in range(0, len(y), chunk):
+        p3 = y[k:k + chunk][:, None, :]
+        p4 = np.roll(y, -1, axis=0)[k:k + chunk][:, None, :]
+        r13, r14, r23, r24 = p3 - p1, p4 - p1, p3 - p2, p4 - p2
+
+        def unit(v):
+            norm = np.linalg.norm(v, axis=-1, keepdims=True)
+            return v / np.where(norm == 0, 1, norm)
+
+        n1, n2 = unit(np.cross(r13, r14)), unit(np.cross(r14, r24))
+        n3, n4 = unit(np.cross(r24, r23)), unit(np.cross(r23, r13))
+
+        def asin(u, v):
+            return np.arcsin(np.clip(np.sum(u * v, axis=-1), -1, 1))
+
+        omega = asin(n1, n2) + asin(n2, n3) + asin(n3, n4) + asin(n4, n1)
+        sign = np.sign(np.sum(np.cross(p4 - p3, p2 - p1) * r13, axis=-1))
+        total += float(np.sum(omega * sign))
+    return total / (4 * np.pi)
