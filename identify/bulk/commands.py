@@ -4,7 +4,8 @@ Exit codes of ``classify``: 0 every item classified; 1 some items failed
 (their rows hold the error); 2 usage error; 3 reference table missing;
 4 the output cannot be opened or resumed (unreachable database, other
 options, not a knotsift output) or the Dask scheduler cannot be reached;
-130 interrupted (run again to continue).
+130 interrupted by Ctrl-C (SIGINT), 143 ended by SIGTERM (run again to continue:
+the chunks already written are kept, the workers are ended).
 """
 
 from __future__ import annotations
@@ -16,6 +17,8 @@ __all__ = ["register", "EXIT_OUTPUT", "CLOSURE_CHOICES"]
 
 #: Exit code when the output cannot be opened or resumed.
 EXIT_OUTPUT = 4
+#: Exit code after SIGTERM (128 + 15, the shell's convention).
+EXIT_TERMINATED = 143
 #: Closures of open chains: knotsift.curves.closure.CLOSURES (kept here so the CLI starts fast).
 CLOSURE_CHOICES = ("direct", "far", "stochastic")
 _GROUP_TITLES = {"n_beads": "chain length N (beads)", "source": "file"}
@@ -58,7 +61,7 @@ def _cmd_classify(args) -> int:
     elif not args.quiet or report.failed:
         print(report.text())
     if report.interrupted:
-        return 130
+        return EXIT_TERMINATED if report.signal == "SIGTERM" else 130
     return 1 if report.failed else 0
 
 

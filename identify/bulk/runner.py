@@ -20,10 +20,15 @@ from dataclasses import dataclass, field
 
 from ..errors import KnotsiftError
 from .resume import ResumeError, pending
-from .rows import ClassifyOptions, classify_chunk
+from .rows import ClassifyOptions, classify_chunk, classify_item, error_rows
 from .sources import iter_items
 
-__all__ = ["classify", "RunReport", "chunked", "default_workers"]
+__all__ = ["classify", "RunReport", "chunked", "default_workers", "classify_one",
+           "classify_chunk_limited", "Terminated"]
+
+
+class Terminated(KeyboardInterrupt):
+    """Raised in the main thread when the process receives SIGTERM (handled like Ctrl-C)."""
 
 STATUS_ORDER = ("identified", "ambiguous", "not in table", "undetermined", "error")
 
@@ -41,6 +46,7 @@ class RunReport:
     workers: int = 1
     backend: str = "serial"
     interrupted: bool = False
+    signal: str | None = None
 
     @property
     def failed(self) -> int:
@@ -52,6 +58,7 @@ class RunReport:
                 "skipped": self.skipped, "failed": self.failed, "counts": dict(self.counts),
                 "seconds": round(self.seconds, 3), "workers": self.workers,
                 "backend": self.backend, "interrupted": self.interrupted,
+                "signal": self.signal,
                 "rate": round(self.written / self.seconds, 3) if self.seconds > 0 else None}
 
     def text(self) -> str:
@@ -95,48 +102,41 @@ def chunked(items: Iterable, size: int) -> Iterator[list]:
         yield block
 
 
-def _worker_start() -> None:
-    """Each worker process opens the reference table itself, on first use."""
-    from ..table import open_table
-
-    open_table.cache_clear()
-
-
 def _run_serial(chunks, options, write):
     for block in chunks:
         write(classify_chunk(block, options))
 
 
-def _run_processes(chunks, options, write, workers: int):
-    import multiprocessing
-    from concurrent.futures import FIRST_COMPLETED, ProcessPoolExecutor, wait
-    from concurrent.futures.process import BrokenProcessPool
+def classify_one(item, options: ClassifyOptions) -> list[dict] | None:
+    """The rows of one item in a worker process; None when it ran out of memory."""
+    rows = classify_item(item, options)
+    if any((r.get("error") or "").startswith("internal error: MemoryError") for r in rows):
+        return None
+    return rows
 
-    ctx = multiprocessing.get_context("spawn")   # no inherited state (open tables, threads)
-    limit = 2 * workers
-    pool = ProcessPoolExecutor(workers, mp_context=ctx, initializer=_worker_start)
-    running: set = set()
-    try:
-        for block in chunks:
-            running.add(pool.submit(classify_chunk, block, options))
-            if len(running) >= limit:
-                finished, running = wait(running, return_when=FIRST_COMPLETED)
-                for f in finished:
-                    write(f.result())
-        while running:
-            finished, running = wait(running, return_when=FIRST_COMPLETED)
-            for f in finished:
-                write(f.result())
-    except BrokenProcessPool:
-        raise KnotsiftError("a worker process died (killed, or out of memory); the chunks "
-                            "already written are kept: run the same command again to "
-                            "continue") from None
-    finally:
-        pool.shutdown(wait=not running, cancel_futures=True)
+
+def _run_processes(items, options, write, workers: int, chunk: int):
+    from ..limits import current
+    from .workers import run_pool
+
+    lim = current()
+    run_pool(items, options, classify_one, write, error_rows, workers=workers, chunk=chunk,
+             item_seconds=lim.item_seconds, memory_mb=lim.worker_memory_mb)
+
+
+def classify_chunk_limited(items: list, options: ClassifyOptions, limits: dict) -> list[dict]:
+    """:func:`classify_chunk` under the given limits (for Dask workers, which do not share
+    this process's environment)."""
+    from ..limits import Limits, set_limits
+
+    set_limits(Limits(**limits), export=False)
+    return classify_chunk(items, options)
 
 
 def _run_dask(chunks, options, write, workers: int, address: str):
     from dask.distributed import Client, LocalCluster, as_completed
+
+    from ..limits import current
 
     cluster = None
     if address == "local":
@@ -153,19 +153,93 @@ def _run_dask(chunks, options, write, workers: int, address: str):
         n = max(1, len(client.scheduler_info().get("workers", {})) or workers)
         limit = 2 * n
         queue = as_completed()
+        blocks: dict = {}
+        limits = current().to_dict()
+
+        def submit(block, attempt=1):
+            future = client.submit(classify_chunk_limited, block, options, limits, pure=False)
+            blocks[future.key] = (block, attempt)
+            queue.add(future)
+
+        def collect(future):
+            block, attempt = blocks.pop(future.key)
+            try:
+                write(future.result())
+            except Exception as exc:  # noqa: BLE001 - a worker died: retry each item alone once
+                if attempt >= 2:
+                    write(error_rows(block[0], f"the Dask task failed twice, once alone "
+                                               f"({type(exc).__name__}: {exc})"))
+                    return
+                for item in block:
+                    submit([item], attempt=2)
+
         in_flight = 0
         for block in chunks:
-            queue.add(client.submit(classify_chunk, block, options, pure=False))
+            submit(block)
             in_flight += 1
             while in_flight >= limit:
-                write(next(queue).result())
+                collect(next(queue))
                 in_flight -= 1
         for future in queue:
-            write(future.result())
+            collect(future)
     finally:
         client.close()
         if cluster is not None:
             cluster.close()
+
+
+class _Signals:
+    """SIGINT and SIGTERM during a run: raised in the main thread, but never inside a write.
+
+    Used as a context manager around the run; :meth:`deferred` wraps each
+    write, and a signal arriving during it is raised as soon as it ends.
+    """
+
+    def __init__(self):
+        self._writing = False
+        self._pending: KeyboardInterrupt | None = None
+        self._saved: dict = {}
+
+    def _handler(self, signum, frame):
+        import signal
+
+        exc = Terminated() if signum == signal.SIGTERM else KeyboardInterrupt()
+        if self._writing:
+            self._pending = self._pending or exc
+            return
+        raise exc
+
+    def __enter__(self):
+        import signal
+        import threading
+
+        if threading.current_thread() is threading.main_thread():
+            for sig in (signal.SIGINT, signal.SIGTERM):
+                self._saved[sig] = signal.signal(sig, self._handler)
+        return self
+
+    def __exit__(self, *exc):
+        import signal
+
+        for sig, old in self._saved.items():
+            signal.signal(sig, old)
+        return False
+
+    def deferred(self):
+        signals = self
+
+        class _Writing:
+            def __enter__(self):
+                signals._writing = True
+
+            def __exit__(self, *exc):
+                signals._writing = False
+                if signals._pending is not None and exc[0] is None:
+                    pending_exc, signals._pending = signals._pending, None
+                    raise pending_exc
+                return False
+
+        return _Writing()
 
 
 def classify(inputs: Iterable[str | os.PathLike], out: str | os.PathLike, *,
@@ -234,24 +308,29 @@ def classify(inputs: Iterable[str | os.PathLike], out: str | os.PathLike, *,
     bar = Progress(total, label="classify", enabled=show)
     statuses: Counter = Counter()
 
-    def write(rows: list[dict]) -> None:
-        sink.write(rows)
-        report.written += len(rows)
-        statuses.update(r["status"] for r in rows)
-        failed = statuses["error"]
-        bar.update(len(rows), detail=f"{failed} failed" if failed else "")
+    signals = _Signals()
 
-    chunks = chunked(pending(items, done, statuses), chunk)
+    def write(rows: list[dict]) -> None:
+        with signals.deferred():   # a chunk is written whole before a signal is acted on
+            sink.write(rows)
+            report.written += len(rows)
+            statuses.update(r["status"] for r in rows)
+            failed = statuses["error"]
+            bar.update(len(rows), detail=f"{failed} failed" if failed else "")
+
+    todo = pending(items, done, statuses)
     start = time.monotonic()
     try:
-        if dask:
-            _run_dask(chunks, options, write, workers, dask)
-        elif workers == 1:
-            _run_serial(chunks, options, write)
-        else:
-            _run_processes(chunks, options, write, workers)
-    except KeyboardInterrupt:
+        with signals:
+            if dask:
+                _run_dask(chunked(todo, chunk), options, write, workers, dask)
+            elif workers == 1:
+                _run_serial(chunked(todo, chunk), options, write)
+            else:
+                _run_processes(todo, options, write, workers, chunk)
+    except KeyboardInterrupt as exc:
         report.interrupted = True
+        report.signal = "SIGTERM" if isinstance(exc, Terminated) else "SIGINT"
     finally:
         report.seconds = time.monotonic() - start
         bar.close()
