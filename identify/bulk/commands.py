@@ -49,7 +49,7 @@ def _cmd_classify(args) -> int:
         report = classify(args.input, args.out, fmt=args.format, codes_column=args.codes_column,
                           label_column=args.label_column, options=options,
                           workers=args.workers, dask=args.dask, chunk=args.chunk,
-                          progress=False if args.quiet else None)
+                          progress=False if args.quiet else None, force=args.force)
     except ResumeError as exc:
         if args.debug:
             raise
@@ -159,6 +159,9 @@ def register(sub, notation_choices) -> None:
                    help="items per chunk, the unit of work and of each committed write "
                         "(default 200)")
     c.add_argument("--table", help="use this reference table file instead of the shipped one")
+    c.add_argument("--force", action="store_true",
+                   help="resume even if a trajectory changed since the run began (its frames "
+                        "are keyed by index: rows of both versions may mix)")
     c.add_argument("-q", "--quiet", action="store_true",
                    help="no progress line; print the summary only if some items failed")
     c.add_argument("--json", action="store_true", help="print the run summary as JSON")

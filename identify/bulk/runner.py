@@ -19,7 +19,7 @@ from collections.abc import Iterable, Iterator
 from dataclasses import dataclass, field
 
 from ..errors import KnotsiftError
-from .resume import ResumeError, pending
+from .resume import ResumeError, compare_inputs, pending
 from .rows import ClassifyOptions, classify_chunk, classify_item, error_rows
 from .sources import iter_items
 
@@ -47,6 +47,7 @@ class RunReport:
     backend: str = "serial"
     interrupted: bool = False
     signal: str | None = None
+    notes: list[str] = field(default_factory=list)
 
     @property
     def failed(self) -> int:
@@ -58,7 +59,7 @@ class RunReport:
                 "skipped": self.skipped, "failed": self.failed, "counts": dict(self.counts),
                 "seconds": round(self.seconds, 3), "workers": self.workers,
                 "backend": self.backend, "interrupted": self.interrupted,
-                "signal": self.signal,
+                "signal": self.signal, "notes": list(self.notes),
                 "rate": round(self.written / self.seconds, 3) if self.seconds > 0 else None}
 
     def text(self) -> str:
@@ -71,6 +72,7 @@ class RunReport:
                  f"{self.skipped} already there",
                  f"  {self.failed} failed" + (" (their rows hold the error)" if self.failed
                                               else "")]
+        lines.extend(f"  note: {n}" for n in self.notes)
         if self.interrupted:
             lines.append("  interrupted: run the same command again to continue")
         return "\n".join(lines)
@@ -246,7 +248,7 @@ def classify(inputs: Iterable[str | os.PathLike], out: str | os.PathLike, *,
              fmt: str = "auto", codes_column: str = "code", label_column: str = "label",
              options: ClassifyOptions | None = None, workers: int | None = None,
              dask: str | None = None, chunk: int = 200, progress: bool | None = None,
-             table_name: str = "classifications") -> RunReport:
+             table_name: str = "classifications", force: bool = False) -> RunReport:
     """Classify every item of the inputs into ``out``, resuming what is already there.
 
     Parameters
@@ -269,6 +271,9 @@ def classify(inputs: Iterable[str | os.PathLike], out: str | os.PathLike, *,
         Items per chunk: the unit of work and of each committed write.
     progress : bool, optional
         Show a progress line (default: when standard error is a terminal).
+    force : bool
+        Resume even when a trajectory changed since the run began
+        (see :func:`knotsift.bulk.resume.compare_inputs`).
 
     Returns
     -------
@@ -282,11 +287,10 @@ def classify(inputs: Iterable[str | os.PathLike], out: str | os.PathLike, *,
         Before any work, for missing inputs, a missing table, or an output that
         cannot be opened or was written with other options.
     """
-    import sys
-
-    from ..progress import Progress
     from ..table import open_table
+    from .lock import lock_output
     from .sinks import open_sink
+    from .sources import input_plan
 
     options = options or ClassifyOptions()
     workers = workers or default_workers()
@@ -295,10 +299,33 @@ def classify(inputs: Iterable[str | os.PathLike], out: str | os.PathLike, *,
     open_table(options.table)   # fail before any work when the table is missing
     read = dict(fmt=fmt, codes_column=codes_column, label_column=label_column,
                 closed=options.closed, beads_per_chain=options.beads_per_chain)
+    inputs = list(inputs)
     items = iter_items(inputs, **read)
     sink = open_sink(out, table_name)
-    sink.prepare(options.to_dict())
-    done = sink.done()
+    lock = lock_output(sink, table_name)   # one writer per output, released at the end
+    try:
+        try:
+            sink.prepare(options.to_dict())
+            done = sink.done()
+            record, notes = compare_inputs(sink.stored_inputs(),
+                                           input_plan(inputs, fmt, codes_column), force)
+            sink.record_inputs(record)
+        except OSError as exc:
+            raise ResumeError(f"cannot use the output {sink.where}: {exc.strerror or exc}",
+                              where=str(sink.where)) from None
+        report = _run(inputs, read, sink, done, options, workers, dask, chunk, progress)
+        report.notes = notes
+        return report
+    finally:
+        lock.release()
+
+
+def _run(inputs, read, sink, done, options, workers, dask, chunk, progress) -> RunReport:
+    import sys
+
+    from ..progress import Progress
+
+    items = iter_items(inputs, **read)
     report = RunReport(out=str(sink.where), workers=workers,
                        backend="dask" if dask else ("process" if workers > 1 else "serial"))
     show = sys.stderr.isatty() if progress is None else progress
@@ -312,7 +339,12 @@ def classify(inputs: Iterable[str | os.PathLike], out: str | os.PathLike, *,
 
     def write(rows: list[dict]) -> None:
         with signals.deferred():   # a chunk is written whole before a signal is acted on
-            sink.write(rows)
+            try:
+                sink.write(rows)
+            except OSError as exc:
+                raise ResumeError(f"cannot write to {sink.where}: {exc.strerror or exc}; the "
+                                  "chunks written before are kept", where=str(sink.where)
+                                  ) from None
             report.written += len(rows)
             statuses.update(r["status"] for r in rows)
             failed = statuses["error"]

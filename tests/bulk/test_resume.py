@@ -28,9 +28,11 @@ def _committed_rows(out: Path) -> int:
         if not manifest.exists():
             return 0
         lines = manifest.read_text().splitlines()[1:]
-        return sum(json.loads(line)["rows"] for line in lines if line.endswith("}"))
+        return sum(json.loads(line).get("rows", 0) for line in lines if line.endswith("}"))
     if out.suffix == ".parquet":
-        return 10 * len(list(out.glob("part-*.parquet")))
+        import pyarrow.parquet as pq
+
+        return sum(pq.ParquetFile(p).metadata.num_rows for p in out.glob("part-*.parquet"))
     if not out.exists():
         return 0
     try:
