@@ -89,10 +89,11 @@ def pending(items: Iterable[Item], done: dict[str, str], statuses: Counter
         keys = item.keys
         found = [done.get(k) for k in keys]
         if found[0] is not None:
-            for status in found:
+            for k, status in zip(keys, found):
                 if status:
                     statuses[status] += 1
                     statuses["_skipped"] += 1
+                    done[k] = ""   # counted once, however often the item is given
             continue
         for k in keys:
             done[k] = ""
