@@ -41,6 +41,9 @@ def _cmd_classify(args) -> int:
             print(f"knotsift classify: --{name.replace('_', '-')} must be at least 1",
                   file=sys.stderr)
             return 2
+    if args.seed < 0:
+        print(f"knotsift classify: --seed must be 0 or more, got {args.seed}", file=sys.stderr)
+        return 2
     options = ClassifyOptions(notation=args.notation, closed=False if args.open else None,
                               closure=args.closure, n_closures=args.closures, seed=args.seed,
                               core=args.core, beads_per_chain=args.beads_per_chain,

@@ -296,6 +296,12 @@ def classify(inputs: Iterable[str | os.PathLike], out: str | os.PathLike, *,
     workers = workers or default_workers()
     if workers < 1:
         raise KnotsiftError(f"workers must be at least 1, got {workers}", value=workers)
+    from ..limits import check_at_most
+
+    check_at_most("closures", options.n_closures, "--closures")
+    if options.seed < 0:
+        raise KnotsiftError(f"the seed must be 0 or more, got {options.seed}",
+                            value=options.seed)
     open_table(options.table)   # fail before any work when the table is missing
     read = dict(fmt=fmt, codes_column=codes_column, label_column=label_column,
                 closed=options.closed, beads_per_chain=options.beads_per_chain)

@@ -23,6 +23,16 @@ def _positive(text: str) -> int:
     return n
 
 
+def _nonnegative(text: str) -> int:
+    try:
+        n = int(text)
+    except ValueError:
+        raise argparse.ArgumentTypeError(f"expected an integer 0 or more, got {text!r}") from None
+    if n < 0:
+        raise argparse.ArgumentTypeError(f"expected an integer 0 or more, got {n}")
+    return n
+
+
 def _cmd_curve(args) -> int:
     from ..table import open_table
     from .formats import parse_frames
@@ -38,6 +48,9 @@ def _cmd_curve(args) -> int:
 
         print("knotsift curve: no input (give a coordinate file or --demo)", file=sys.stderr)
         return 2
+    from ..limits import check_at_most
+
+    check_at_most("closures", args.closures, "--closures")
     table = open_table(args.table)
     frames = parse_frames(args.frames) if args.frames else None
     status = 0
@@ -73,7 +86,8 @@ def register(sub) -> None:
                         "over random closures)")
     c.add_argument("--closures", type=_positive, default=100, metavar="N",
                    help="number of random closures (default 100)")
-    c.add_argument("--seed", type=int, default=0, help="seed of every random step (default 0)")
+    c.add_argument("--seed", type=_nonnegative, default=0,
+                   help="seed of every random step (default 0)")
     c.add_argument("--core", action="store_true",
                    help="also find the knotted core (the shortest subchain keeping the type)")
     c.add_argument("--frames", metavar="START:STOP",
