@@ -206,6 +206,14 @@ def check_text(text: str, what: str = "the text", where: str | None = None) -> N
         raise LimitError(f"{what} holds the control or undecodable character "
                          f"{text[bad]!r} at position {bad + 1}: binary data, not a code",
                          value=text[bad], where=where)
+    if not text.isascii():
+        import unicodedata
+
+        hidden = next((i for i, ch in enumerate(text) if unicodedata.category(ch) == "Cf"), None)
+        if hidden is not None:   # bidirectional overrides and other invisible characters
+            raise LimitError(f"{what} holds the invisible formatting (control) character "
+                             f"{text[hidden]!r} at position {hidden + 1}",
+                             value=text[hidden], where=where)
     for m in _LONG_DIGITS.finditer(text):
         if m.end() - m.start() > lim.integer_digits:
             raise LimitError(f"{what} holds an integer of {m.end() - m.start()} digits at "

@@ -180,8 +180,8 @@ def _code_items(path: Path, source: str, codes_column: str, label_column: str,
                 header = columns
             elif len(columns) > 1 and delimiter == "," and _looks_like_header(columns):
                 raise NotationError(
-                    f"{source}, line {n}: this looks like a table header ({', '.join(columns)}) "
-                    f"without the code column {codes_column!r}; name the column holding the "
+                    f"this looks like a table header ({', '.join(columns)}) without the "
+                    f"expected code column {codes_column!r}; name the column holding the "
                     "codes with --codes-column", value=columns, where=f"{source}, line {n}")
             else:
                 yield _line_item(source, n, s, key, origin)
@@ -241,7 +241,12 @@ def _curve_items(path: Path, source: str, fmt: str, closed: bool | None,
     """One item per frame from knotsift.curves' streaming reader; bad frames as error items."""
     read_frames = _curve_reader()
     extra = {"beads_per_chain": beads_per_chain} if beads_per_chain and fmt == "xyz" else {}
-    frames = read_frames(path, format=fmt, closed=closed, errors="yield", **extra)
+    try:
+        frames = read_frames(path, format=fmt, closed=closed, errors="yield", **extra)
+    except KnotsiftError as exc:   # the file cannot be read at all: one error row, the run goes on
+        yield Item(item_key(origin, -1, 0), source, -1, 0, "frame", None,
+                   error=f"{source}: cannot be read: {exc}", origin=origin)
+        return
     while True:
         try:
             frame = next(frames)
