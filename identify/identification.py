@@ -172,6 +172,7 @@ def identify_diagram(diagram: Diagram, table: ReferenceTable | None = None,
     if trivial:
         result.notes.append(trivial)
     result.notes.append(EVIDENCE_NOTE)
+    _unknot_basis(result)
     if neighbours:
         result.neighbours = crossing_change_neighbours(simple, table)
     return result
@@ -253,12 +254,18 @@ def identify(source, notation: str | None = None, *, table: ReferenceTable | Non
     table = table or open_table()
     if isinstance(source, Diagram):
         return identify_diagram(source, table, neighbours, label, "diagram")
-    from .notations.detect import detect_notation, parse_any_with_uncertain
+    from .notations.detect import detect_notation, parse_any_with_uncertain, reading_of
 
     from .limits import check_at_most, check_text
 
     check_text(source, "the code")
     used = notation or detect_notation(source)
+    flipped = _dt_drawings_result(source, used, table, neighbours, label)
+    if flipped is not None:
+        flipped.notation_how, unsure = reading_of(source, notation, used)
+        if unsure:
+            flipped.notes.insert(0, unsure)
+        return flipped
     diagram, uncertain = parse_any_with_uncertain(source, used)
     n = diagram.number_of_crossings()
     check_at_most("crossings", n, f"the number of crossings of the {used} code")
@@ -270,6 +277,13 @@ def identify(source, notation: str | None = None, *, table: ReferenceTable | Non
         check_at_most("uncertain_work", (1 << min(len(uncertain), 62)) * max(n, 1),
                       f"2^{len(uncertain)} resolutions x {n} crossings")
     result = identify_diagram(diagram, table, neighbours, label, used)
+    result.notation_how, unsure = reading_of(source, notation, used)
+    if unsure:
+        result.notes.insert(0, unsure)
+    if used == "conway":
+        from .two_bridge import settle_two_bridge
+
+        settle_two_bridge(result, source, table)
     if uncertain:
         as_drawn = _short(result.candidates, result.invariants["jones"])
         result.resolutions, resolved = _resolutions(diagram, uncertain, table)
@@ -285,6 +299,41 @@ def identify(source, notation: str | None = None, *, table: ReferenceTable | Non
             result.notes.insert(0, f"all {1 << len(uncertain)} resolutions of the uncertain "
                                    "crossings give the same result")
     return result
+
+
+def _dt_drawings_result(source: str, used: str, table: ReferenceTable, neighbours: bool,
+                        label: str) -> IdentifyResult | None:
+    """For a DT code whose shadow has pieces that may flip: every drawing identified, else None."""
+    if used != "dt":
+        return None
+    from .flips import identify_drawings
+    from .notations.dt import dt_drawings
+
+    drawings, pieces = dt_drawings(source)
+    if len(drawings) == 1:
+        return None
+    result = identify_drawings(drawings, pieces, table,
+                               lambda d: identify_diagram(d, table, neighbours, label, used))
+    result.resolved_over = "the drawings of the code"
+    return result
+
+
+def _unknot_basis(result: IdentifyResult) -> None:
+    """Say whether an unknot verdict is a proof (trivial diagram) or evidence (invariants)."""
+    if result.status != "identified" or result.candidates[0].name != "0_1":
+        return
+    c = result.candidates[0]
+    if result.crossings_simplified == 0:
+        c.basis = "trivial diagram"
+        result.notes = [n for n in result.notes if not n.startswith("all computed invariants")
+                        and n != EVIDENCE_NOTE]
+        result.notes.insert(0, "proof: the diagram simplifies to the trivial diagram (no "
+                               "crossings) by Reidemeister moves, so it is the unknot")
+    else:
+        c.basis = "invariants"
+        result.notes.insert(0, f"evidence only: the diagram kept {result.crossings_simplified} "
+                               "crossings after simplification, and its invariants equal the "
+                               "unknot's; no proof that it is the unknot")
 
 
 def safe_identify(source, notation=None, **kw) -> IdentifyResult:

@@ -8,11 +8,23 @@ from __future__ import annotations
 
 from dataclasses import dataclass, field
 
+from .display import ResultValues
+
 __all__ = ["Candidate", "IdentifyResult", "STATUSES", "CHIRALITIES", "JSON_SCHEMA_VERSION"]
 
 JSON_SCHEMA_VERSION = 1
 STATUSES = ("identified", "ambiguous", "not in table", "error")
 CHIRALITIES = ("same", "mirror", "amphichiral", "undetermined")
+
+
+def _notation_words(notation: str, how: str) -> str:
+    """'DT code (detected)', 'braid word (named in the text)', '3D coordinates'."""
+    names = {"pd": "PD code", "dt": "DT code", "gauss": "Gauss code", "braid": "braid word",
+             "conway": "Conway notation", "diagram": "a diagram object"}
+    shown = names.get(notation, notation)
+    why = {"detected": "detected", "named": "named in the text",
+           "given": "as requested"}.get(how)
+    return f"{shown} ({why})" if why else shown
 
 
 @dataclass
@@ -26,9 +38,13 @@ class Candidate:
     crossing_number: int
     kind: str
     aliases: list[str] = field(default_factory=list)
+    #: What the verdict rests on: "invariants" (a match: evidence), or for the
+    #: unknot "trivial diagram" (the diagram simplified to no crossings: proof).
+    basis: str = "invariants"
 
     def to_dict(self) -> dict:
         return {
+            "basis": self.basis,
             "name": self.name,
             "label": self.label,
             "chirality": self.chirality,
@@ -40,8 +56,12 @@ class Candidate:
 
 
 @dataclass
-class IdentifyResult:
-    """What could be said about one input diagram."""
+class IdentifyResult(ResultValues):
+    """What could be said about one input diagram.
+
+    ``invariant_values`` gives the invariants as values (Laurent, int), and
+    Jupyter shows the result as a small table (see :mod:`knotsift.display`).
+    """
 
     status: str
     candidates: list[Candidate] = field(default_factory=list)
@@ -50,11 +70,14 @@ class IdentifyResult:
     notes: list[str] = field(default_factory=list)
     source: str = ""
     notation: str = ""
+    notation_how: str = ""
     crossings_input: int | None = None
     crossings_simplified: int | None = None
     resolutions: list[dict] | None = None
     neighbours: list[dict] | None = None
     error: str | None = None
+    #: What the resolutions range over, for the text report.
+    resolved_over: str = "the uncertain crossings"
 
     @property
     def name(self) -> str | None:
@@ -69,6 +92,7 @@ class IdentifyResult:
             "schema_version": JSON_SCHEMA_VERSION,
             "source": self.source,
             "notation": self.notation,
+            "notation_how": self.notation_how,
             "status": self.status,
             "name": self.name,
             "candidates": [c.to_dict() for c in self.candidates],
@@ -96,16 +120,22 @@ class IdentifyResult:
             }[c.chirality]
             alias = f" ({', '.join(c.aliases)})" if c.aliases else ""
             shown = c.label if c.chirality in ("same", "mirror") else c.name
+            if c.name == "0_1":
+                chir = {"trivial diagram": "proven, the diagram simplifies to no crossings",
+                        "invariants": "by its invariants only (evidence, not proof)"}.get(
+                            c.basis, chir)
             lines.append(f"{head}{shown}{alias}: {chir}")
         elif self.status == "ambiguous" and self.resolutions:
             shown = ", ".join(f"{r['result']} ({r['fraction']:.0%})" for r in self.resolutions)
-            lines.append(f"{head}ambiguous over the uncertain crossings: {shown}")
+            lines.append(f"{head}ambiguous over {self.resolved_over}: {shown}")
         elif self.status == "ambiguous":
             names = ", ".join(c.label if c.chirality in ("same", "mirror") else c.name
                               for c in self.candidates)
             lines.append(f"{head}ambiguous: {names}")
         else:
             lines.append(f"{head}not in the table")
+        if self.notation:
+            lines.append(f"  read as: {_notation_words(self.notation, self.notation_how)}")
         if self.crossings_input is not None:
             lines.append(f"  crossings: {self.crossings_input} in the input, "
                          f"{self.crossings_simplified} after simplification")
@@ -118,7 +148,7 @@ class IdentifyResult:
                     if sep else ""
                 lines.append(f"  {label:<11} {self.invariants[key]}{share}")
         if self.resolutions:
-            lines.append("  resolutions of the uncertain crossings:")
+            lines.append(f"  resolutions of {self.resolved_over}:")
             for r in self.resolutions:
                 lines.append(f"    {r['fraction']:6.1%}  {r['result']}  ({r['count']} of "
                              f"{r['total']})")

@@ -81,6 +81,9 @@ class ClassifyOptions:
         Split each XYZ frame into chains of this many beads.
     table : str, optional
         A reference table file instead of the shipped one.
+    topology, select, chains_by, box
+        MD trajectories: as for :func:`knotsift.curves.formats.read_frames`.
+        Stored with the output only when set.
     """
 
     notation: str | None = None
@@ -91,9 +94,26 @@ class ClassifyOptions:
     core: bool = False
     beads_per_chain: int | None = None
     table: str | None = None
+    topology: str | None = None
+    select: str | None = None
+    chains_by: str = "auto"
+    box: tuple | None = None
+
+    def reader_options(self) -> dict:
+        """The MD reader options that are set, as keywords of read_frames."""
+        out = {k: getattr(self, k) for k in ("topology", "select", "box")
+               if getattr(self, k) is not None}
+        if self.chains_by != "auto":
+            out["chains_by"] = self.chains_by
+        return out
 
     def to_dict(self) -> dict:
-        return asdict(self)
+        d = {k: v for k, v in asdict(self).items()
+             if k not in ("topology", "select", "chains_by", "box")}
+        d.update(self.reader_options())
+        if "box" in d:
+            d["box"] = [float(v) for v in d["box"]]
+        return d
 
 
 def _empty_row(item, chain: int = 0) -> dict:

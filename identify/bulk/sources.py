@@ -41,8 +41,9 @@ from .resume import item_key
 
 __all__ = ["Item", "FORMATS", "CURVE_FORMATS", "detect_format", "iter_items", "input_plan"]
 
-#: Trajectory formats, read by knotsift.curves.
-CURVE_FORMATS = ("xyz", "pdb", "csv", "npy")
+#: Trajectory formats, read by knotsift.curves (the MD ones through MDAnalysis).
+CURVE_FORMATS = ("xyz", "pdb", "csv", "npy", "lammps-data", "lammps-dump", "dcd", "xtc",
+                 "trr", "gro", "gsd", "netcdf", "mmcif")
 #: ``codes`` is a table or list of diagram codes; ``auto`` decides per file (see detect_format).
 FORMATS = ("auto", "codes") + CURVE_FORMATS
 
@@ -132,6 +133,11 @@ def detect_format(path: str | os.PathLike, codes_column: str = "code") -> str:
     ext = p.suffix.lower()
     if ext in _CURVE_EXTENSIONS:
         return _CURVE_EXTENSIONS[ext]
+    from ..curves.universe import md_format_of
+
+    md = md_format_of(p)
+    if md is not None:
+        return md
     try:
         first = _first_line(p)
     except OSError as exc:
@@ -237,12 +243,14 @@ def _curve_reader():
 
 
 def _curve_items(path: Path, source: str, fmt: str, closed: bool | None,
-                 beads_per_chain: int | None, origin: str) -> Iterator[Item]:
+                 beads_per_chain: int | None, origin: str, reader: dict | None = None
+                 ) -> Iterator[Item]:
     """One item per frame from knotsift.curves' streaming reader; bad frames as error items."""
     read_frames = _curve_reader()
     extra = {"beads_per_chain": beads_per_chain} if beads_per_chain and fmt == "xyz" else {}
     try:
-        frames = read_frames(path, format=fmt, closed=closed, errors="yield", **extra)
+        frames = read_frames(path, format=fmt, closed=closed, errors="yield", **extra,
+                             **(reader or {}))
     except KnotsiftError as exc:   # the file cannot be read at all: one error row, the run goes on
         yield Item(item_key(origin, -1, 0), source, -1, 0, "frame", None,
                    error=f"{source}: cannot be read: {exc}", origin=origin)
@@ -270,8 +278,8 @@ def _curve_items(path: Path, source: str, fmt: str, closed: bool | None,
 
 def iter_items(inputs: Iterable[str | os.PathLike], fmt: str = "auto", *,
                codes_column: str = "code", label_column: str = "label",
-               closed: bool | None = None, beads_per_chain: int | None = None
-               ) -> Iterator[Item]:
+               closed: bool | None = None, beads_per_chain: int | None = None,
+               reader: dict | None = None) -> Iterator[Item]:
     """Every item of every input file, lazily, in file order.
 
     Parameters
@@ -288,6 +296,9 @@ def iter_items(inputs: Iterable[str | os.PathLike], fmt: str = "auto", *,
         (PDB open, the others rings; see knotsift.curves.formats).
     beads_per_chain : int, optional
         Split each XYZ frame into chains of this many beads.
+    reader : dict, optional
+        Keywords of :func:`knotsift.curves.formats.read_frames` for trajectories
+        (``topology``, ``select``, ``chains_by``, ``box``).
 
     Returns
     -------
@@ -313,7 +324,7 @@ def iter_items(inputs: Iterable[str | os.PathLike], fmt: str = "auto", *,
     plan = input_plan(inputs, fmt, codes_column)
     if any(used != "codes" for _, used in plan):
         _curve_reader()  # a missing 3D reader is reported now, not half-way through a run
-    return _items(plan, codes_column, label_column, closed, beads_per_chain)
+    return _items(plan, codes_column, label_column, closed, beads_per_chain, reader)
 
 
 def input_plan(inputs: Iterable[str | os.PathLike], fmt: str = "auto",
@@ -338,7 +349,7 @@ def input_plan(inputs: Iterable[str | os.PathLike], fmt: str = "auto",
     return [(p, fmt if fmt != "auto" else detect_format(p, codes_column)) for p in paths]
 
 
-def _items(plan, codes_column: str, label_column: str, closed, beads_per_chain
+def _items(plan, codes_column: str, label_column: str, closed, beads_per_chain, reader=None
            ) -> Iterator[Item]:
     for path, used in plan:
         source = os.path.normpath(str(path))
@@ -346,5 +357,6 @@ def _items(plan, codes_column: str, label_column: str, closed, beads_per_chain
         if used == "codes":
             yield from _code_items(path, source, codes_column, label_column, origin)
         else:
-            yield from _curve_items(path, source, used, closed, beads_per_chain, origin)
+            yield from _curve_items(path, source, used, closed, beads_per_chain, origin,
+                                    reader)
 
