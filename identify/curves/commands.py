@@ -16,24 +16,21 @@ CHAINS_BY_CHOICES = ("auto", "molecules", "fragments", "segments", "one")
 CLOSURE_CHOICES = ("direct", "far", "stochastic")
 
 
-def _positive(text: str) -> int:
-    try:
-        n = int(text)
-    except ValueError:
-        raise argparse.ArgumentTypeError(f"expected a positive integer, got {text!r}") from None
-    if n < 1:
-        raise argparse.ArgumentTypeError(f"expected a positive integer, got {n}")
-    return n
+def _integer_at_least(minimum: int, words: str):
+    """An argparse type: an integer of at least ``minimum`` (``words`` says it in the message)."""
+    def convert(text: str) -> int:
+        try:
+            n = int(text)
+        except ValueError:
+            raise argparse.ArgumentTypeError(f"expected {words}, got {text!r}") from None
+        if n < minimum:
+            raise argparse.ArgumentTypeError(f"expected {words}, got {n}")
+        return n
+    return convert
 
 
-def _nonnegative(text: str) -> int:
-    try:
-        n = int(text)
-    except ValueError:
-        raise argparse.ArgumentTypeError(f"expected an integer 0 or more, got {text!r}") from None
-    if n < 0:
-        raise argparse.ArgumentTypeError(f"expected an integer 0 or more, got {n}")
-    return n
+_positive = _integer_at_least(1, "a positive integer")
+_nonnegative = _integer_at_least(0, "an integer 0 or more")
 
 
 def _length(text: str) -> float:
