@@ -186,13 +186,13 @@ def braid_word(word: str | Sequence[int]) -> list[int]:
                                     f"found {text[i + 1:i + 2] or 'end of text'!r}",
                                     value=text, where=f"token {token}, position {i + 2}")
             power, i = got
+        if abs(power) * len(gens) + len(out) > _MAX_CROSSINGS:
+            raise NotationError(f"braid word: more than {_MAX_CROSSINGS} crossings; expected a "
+                                "shorter word", value=text, where=where)
         from ..limits import check_at_most
 
         check_at_most("crossings", abs(power) * len(gens) + len(out),
                       "the number of crossings of the braid word", where=where)
-        if abs(power) * len(gens) + len(out) > _MAX_CROSSINGS:
-            raise NotationError(f"braid word: more than {_MAX_CROSSINGS} crossings; expected a "
-                                "shorter word", value=text, where=where)
         if power < 0:  # the inverse: reversed, each generator inverted
             gens = [-g for g in reversed(gens)]
         out += gens * abs(power)
