@@ -340,6 +340,12 @@ def _parser() -> argparse.ArgumentParser:
     from .curves.commands import register as register_curve  # knots in 3D coordinates
 
     register_curve(sub)
+
+    from .drawing.commands import register as register_draw  # pictures of diagrams
+    from .drawing.commands import register_report  # the HTML report of a classify run
+
+    register_draw(sub, NOTATION_CHOICES)
+    register_report(sub)
     for command in sub.choices.values():   # the input limits (knotsift.limits), on every command
         command.add_argument("--limit", action="append", metavar="NAME=VALUE", default=[],
                              help="raise or lower an input limit, e.g. crossings=5000 "

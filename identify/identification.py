@@ -160,6 +160,7 @@ def identify_diagram(diagram: Diagram, table: ReferenceTable | None = None,
                             separation=separation, source=source, notation=notation,
                             crossings_input=diagram.number_of_crossings(),
                             crossings_simplified=simple.number_of_crossings())
+    result.diagram = diagram  # kept for result.draw() and notebooks, not in the JSON
     if candidates:
         result.notes.append(_chirality_note(fp, candidates[0]))
         if status == "ambiguous":
