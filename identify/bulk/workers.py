@@ -217,7 +217,8 @@ def run_pool(items: Iterator, options, work: Callable, write: Callable[[list], N
     source = iter(items)
     exhausted = False
     next_id = 0
-    buffer: list = []
+    buffer: list[list] = []   # the rows of whole items, one list per item
+    waiting = [0]              # rows in buffer
     last_flush = time.monotonic()
     done_items = 0
     busy_seconds = 0.0
@@ -233,11 +234,19 @@ def run_pool(items: Iterator, options, work: Callable, write: Callable[[list], N
 
     def flush(force: bool = False) -> None:
         nonlocal buffer, last_flush
-        if buffer and (force or len(buffer) >= chunk
+        if buffer and (force or waiting[0] >= chunk
                        or time.monotonic() - last_flush >= flush_seconds):
-            block, buffer = buffer, []
-            write(block)
+            while buffer:   # blocks of whole items, at most chunk rows (at least one item)
+                block: list = []
+                while buffer and (not block or len(block) + len(buffer[0]) <= chunk):
+                    block.extend(buffer.pop(0))
+                waiting[0] -= len(block)
+                write(block)
             last_flush = time.monotonic()
+
+    def keep(rows: list) -> None:
+        buffer.append(rows)
+        waiting[0] += len(rows)
 
     def next_task() -> _Task | None:
         nonlocal exhausted, next_id
@@ -285,7 +294,7 @@ def run_pool(items: Iterator, options, work: Callable, write: Callable[[list], N
             return
         kept = [task.rows[i] for i in sorted(task.rows)]
         for rows in kept:
-            buffer.extend(rows)
+            keep(rows)
         rest = [task.items[i] for i in range(len(task.items)) if i not in task.rows]
         suspect = task.current if task.current is not None and task.current not in task.rows \
             else None
@@ -293,7 +302,7 @@ def run_pool(items: Iterator, options, work: Callable, write: Callable[[list], N
             item = task.items[suspect]
             rest.remove(item)
             if task.attempt >= 2:
-                buffer.extend(fail_rows(item, f"{reason}, twice (once alone); the item was "
+                keep(fail_rows(item, f"{reason}, twice (once alone); the item was "
                                               "given up"))
             else:
                 retry.append(_Task(0, [item], attempt=2))
@@ -363,7 +372,7 @@ def run_pool(items: Iterator, options, work: Callable, write: Callable[[list], N
                     task.current = None
                 elif msg[0] == "done":
                     for i in sorted(task.rows):
-                        buffer.extend(task.rows[i])
+                        keep(task.rows[i])
                     done_items += len(task.items)
                     busy_seconds += now - w.busy_since
                     w.task = None
