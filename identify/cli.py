@@ -1,10 +1,13 @@
 """The ``knotsift`` command: thin wrappers, each calling one library function.
 
-Exit codes: 0 success; 1 some inputs could not be read (their errors are
-reported, the rest is processed), or a name given to ``show`` is not in the
-table; 2 usage error; 3 the reference table is missing or unreadable; 141
-standard output was closed early (``knotsift ... | head``): the command stops
-quietly, as a process ended by SIGPIPE would.
+Exit codes: 0 success; 1 some inputs could not be read or were refused by a
+limit (their errors are reported, the rest is processed), or a name given to
+``show`` is not in the table; 2 usage error (an unknown option, a bad
+--limit, an empty name); 3 the reference table is missing or unreadable; 4
+(classify, summarise) the output cannot be opened, is locked by another run,
+or is damaged; 130 interrupted; 141 standard output was closed early
+(``knotsift ... | head``): the command stops quietly, as a process ended by
+SIGPIPE would; 143 ended by SIGTERM.
 """
 
 from __future__ import annotations
@@ -35,7 +38,7 @@ def _inputs(args) -> list[tuple[str, object]]:
     for k, code in enumerate(args.code or []):
         label = f"input {k + 1}" if len(args.code) > 1 else "input"
         if code == "-":
-            items.extend(_lines(sys.stdin.read().splitlines(), "stdin"))
+            items.extend(_lines(_read_lines(sys.stdin.buffer, "stdin"), "stdin"))
         elif _is_file(code):
             items.extend(_file_items(code))
         elif _looks_like_path(code):
@@ -46,13 +49,41 @@ def _inputs(args) -> list[tuple[str, object]]:
             items.append((label, code))
     for path in args.file or []:
         try:
-            with open(path, encoding="utf-8") as fh:
-                items.extend(_lines(fh.read().splitlines(), path))
+            with open(path, "rb") as fh:
+                items.extend(_lines(_read_lines(fh, path), path))
         except OSError as exc:
             raise NotationError(f"cannot read {path}: {exc.strerror}", value=path) from None
     if not items and not sys.stdin.isatty() and not args.code and not args.file:
-        items.extend(_lines(sys.stdin.read().splitlines(), "stdin"))
+        items.extend(_lines(_read_lines(sys.stdin.buffer, "stdin"), "stdin"))
     return items
+
+
+def _read_lines(fh, where: str) -> list[str]:
+    """The lines of a binary stream as UTF-8 text, each bounded by the text_chars limit.
+
+    A line longer than the limit (``/dev/zero``, a file without newlines) or
+    bytes that are not UTF-8 are refused, naming the line, before more is read.
+    """
+    from .errors import NotationError
+    from .limits import LimitError, current
+
+    cap = current().text_chars
+    out = []
+    n = 0
+    while True:
+        raw = fh.readline(cap + 2)
+        if not raw:
+            return out
+        n += 1
+        if len(raw) > cap + 1 or (len(raw) == cap + 1 and not raw.endswith(b"\n")):
+            raise LimitError(f"line {n} is longer than the limit text_chars = {cap}; raise it "
+                             "with --limit text_chars=N if you mean it", value=n, where=where)
+        try:
+            out.append(raw.decode("utf-8").rstrip("\r\n"))
+        except UnicodeDecodeError as exc:
+            raise NotationError(f"line {n} is not UTF-8 text (byte {exc.start + 1} of the line "
+                                "cannot be decoded); binary data or another encoding",
+                                value=n, where=where) from None
 
 
 def _is_file(text: str) -> bool:
@@ -186,7 +217,12 @@ def _cmd_show(args) -> int:
     from .table import open_table
 
     from .link_entry import describe_link, find_link, link_entry_text
+    from .limits import check_text
 
+    if not args.name.strip():
+        print("knotsift show: give a name, e.g. 4_1 or 'figure eight'", file=sys.stderr)
+        return 2
+    check_text(args.name, "the name")
     table = open_table(args.table)
     link = find_link(args.name, table)
     if link is not None:
@@ -327,6 +363,10 @@ def _parser() -> argparse.ArgumentParser:
 
     register_draw(sub, NOTATION_CHOICES)
     register_report(sub)
+    for command in sub.choices.values():   # the input limits (knotsift.limits), on every command
+        command.add_argument("--limit", action="append", metavar="NAME=VALUE", default=[],
+                             help="raise or lower an input limit, e.g. crossings=5000 "
+                                  "(repeatable; see README, 'Limits')")
     return p
 
 
@@ -360,6 +400,16 @@ def main(argv: list[str] | None = None) -> int:
         args = parser.parse_args(argv)  # --help writes to standard output too
     except BrokenPipeError:
         return _closed_pipe()
+    from .limits import LimitError, current, parse_limit_options, set_limits
+
+    try:
+        if getattr(args, "limit", None):
+            set_limits(parse_limit_options(args.limit, current()))
+        else:
+            current()   # a bad KNOTSIFT_LIMITS is reported here
+    except LimitError as exc:
+        print(f"knotsift: {exc}", file=sys.stderr)
+        return 2
     try:
         code = args.func(args)
         sys.stdout.flush()  # a closed pipe shows here, inside the handler below
@@ -379,6 +429,12 @@ def main(argv: list[str] | None = None) -> int:
     except KeyboardInterrupt:
         print("knotsift: interrupted", file=sys.stderr)
         return 130
+    except OSError as exc:   # an unwritable plot, a full disk: one line, not a traceback
+        if args.debug:
+            raise
+        where = f" {exc.filename}" if getattr(exc, "filename", None) else ""
+        print(f"knotsift: cannot access{where}: {exc.strerror or exc}", file=sys.stderr)
+        return 1
 
 
 if __name__ == "__main__":

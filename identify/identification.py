@@ -334,6 +334,9 @@ def identify(source, notation: str | None = None, *, table: ReferenceTable | Non
         return identify_diagram(source, table, neighbours, label, "diagram")
     from .notations.detect import detect_notation, parse_any_with_uncertain, reading_of
 
+    from .limits import check_at_most, check_text
+
+    check_text(source, "the code")
     used = notation or detect_notation(source)
     flipped = _dt_drawings_result(source, used, table, neighbours, label)
     if flipped is not None:
@@ -343,10 +346,15 @@ def identify(source, notation: str | None = None, *, table: ReferenceTable | Non
         return flipped
     diagram, uncertain = parse_any_with_uncertain(source, used)
     _check_expected(diagram, expect, used)
+    n = diagram.number_of_crossings()
+    check_at_most("crossings", n, f"the number of crossings of the {used} code")
     if len(uncertain) > MAX_UNCERTAIN:
         raise DiagramError(f"at most {MAX_UNCERTAIN} crossings may be marked uncertain "
                            f"(2^{MAX_UNCERTAIN} resolutions), got {len(uncertain)}",
                            value=len(uncertain))
+    if uncertain:
+        check_at_most("uncertain_work", (1 << min(len(uncertain), 62)) * max(n, 1),
+                      f"2^{len(uncertain)} resolutions x {n} crossings")
     result = identify_diagram(diagram, table, neighbours, label, used)
     result.notation_how, unsure = reading_of(source, notation, used)
     if unsure:

@@ -27,6 +27,9 @@ def lookup_invariants(table: ReferenceTable, jones: str | None = None,
     """
     if jones is None and alexander is None and determinant is None and signature is None:
         raise PolynomialError("give at least one invariant value to look up")
+    for name, text in (("--jones", jones), ("--alexander", alexander)):
+        if text is not None:
+            _check_typed(text, name)
     query: dict[str, str] = {}
     if alexander is not None:
         a = normalise_alexander(Laurent.parse(alexander))
@@ -57,6 +60,19 @@ def lookup_invariants(table: ReferenceTable, jones: str | None = None,
     if signature is not None:
         query["signature"] = str(signature)
     return {"query": query, "matches": hits, "count": len(hits)}
+
+
+def _check_typed(text: str, name: str) -> None:
+    """Bound a typed polynomial's size before any dense arithmetic (see knotsift.limits)."""
+    from .limits import check_at_most, check_text
+    from .polynomial_text import parse_laurent_terms
+
+    check_text(text, f"the polynomial of {name}")
+    terms = parse_laurent_terms(text)
+    check_at_most("poly_terms", len(terms), f"the number of terms of {name}")
+    if terms:
+        check_at_most("poly_degree", int(max(abs(e) for e in terms)),
+                      f"the largest |exponent| of {name}")
 
 
 def lookup_text(found: dict) -> str:

@@ -32,7 +32,7 @@ class _Scanner:
     def integer(self) -> int | None:
         self.skip_space()
         start = self.pos
-        while self.pos < len(self.text) and self.text[self.pos].isdigit():
+        while self.pos < len(self.text) and self.text[self.pos] in "0123456789":
             self.pos += 1
         if start == self.pos:
             return None

@@ -241,8 +241,10 @@ class ReferenceTable:
             raise TableError(f"reference table not found at {self.path}; {REBUILD_HINT}",
                              value=str(self.path))
         try:
-            self._db = sqlite3.connect(f"file:{self.path}?mode=ro&immutable=1", uri=True,
-                                       check_same_thread=False)
+            from urllib.parse import quote
+
+            uri = f"file:{quote(str(self.path.resolve()))}?mode=ro&immutable=1"   # '#', '?', '%'
+            self._db = sqlite3.connect(uri, uri=True, check_same_thread=False)
             rows = dict(self._db.execute("SELECT key, value FROM metadata").fetchall())
         except sqlite3.DatabaseError as exc:
             raise TableError(f"reference table at {self.path} is unreadable or corrupt "

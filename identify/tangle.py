@@ -276,6 +276,9 @@ def integer_tangle(n: int) -> Tangle:
     """
     if isinstance(n, bool) or not isinstance(n, int):
         raise TypeError(f"an integer tangle needs an int, got {n!r}")
+    from .limits import check_at_most
+
+    check_at_most("crossings", abs(n), "the number of twists of an integer tangle")
     if n == 0:
         return Tangle.zero()
     # crossing k has NW = top k, SW = bottom k, SE = bottom k+1, NE = top k+1

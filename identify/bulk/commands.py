@@ -4,7 +4,8 @@ Exit codes of ``classify``: 0 every item classified; 1 some items failed
 (their rows hold the error); 2 usage error; 3 reference table missing;
 4 the output cannot be opened or resumed (unreachable database, other
 options, not a knotsift output) or the Dask scheduler cannot be reached;
-130 interrupted (run again to continue).
+130 interrupted by Ctrl-C (SIGINT), 143 ended by SIGTERM (run again to continue:
+the chunks already written are kept, the workers are ended).
 """
 
 from __future__ import annotations
@@ -16,6 +17,8 @@ __all__ = ["register", "EXIT_OUTPUT", "CLOSURE_CHOICES"]
 
 #: Exit code when the output cannot be opened or resumed.
 EXIT_OUTPUT = 4
+#: Exit code after SIGTERM (128 + 15, the shell's convention).
+EXIT_TERMINATED = 143
 #: Closures of open chains: knotsift.curves.closure.CLOSURES (kept here so the CLI starts fast).
 CLOSURE_CHOICES = ("direct", "far", "stochastic")
 _GROUP_TITLES = {"n_beads": "chain length N (beads)", "source": "file"}
@@ -38,6 +41,9 @@ def _cmd_classify(args) -> int:
             print(f"knotsift classify: --{name.replace('_', '-')} must be at least 1",
                   file=sys.stderr)
             return 2
+    if args.seed < 0:
+        print(f"knotsift classify: --seed must be 0 or more, got {args.seed}", file=sys.stderr)
+        return 2
     options = ClassifyOptions(notation=args.notation, closed=False if args.open else None,
                               closure=args.closure, n_closures=args.closures, seed=args.seed,
                               core=args.core, beads_per_chain=args.beads_per_chain,
@@ -48,7 +54,7 @@ def _cmd_classify(args) -> int:
         report = classify(args.input, args.out, fmt=args.format, codes_column=args.codes_column,
                           label_column=args.label_column, options=options,
                           workers=args.workers, dask=args.dask, chunk=args.chunk,
-                          progress=False if args.quiet else None)
+                          progress=False if args.quiet else None, force=args.force)
     except ResumeError as exc:
         if args.debug:
             raise
@@ -60,7 +66,7 @@ def _cmd_classify(args) -> int:
     elif not args.quiet or report.failed:
         print(report.text())
     if report.interrupted:
-        return 130
+        return EXIT_TERMINATED if report.signal == "SIGTERM" else 130
     return 1 if report.failed else 0
 
 
@@ -176,6 +182,9 @@ def register(sub, notation_choices) -> None:
                    help="items per chunk, the unit of work and of each committed write "
                         "(default 200)")
     c.add_argument("--table", help="use this reference table file instead of the shipped one")
+    c.add_argument("--force", action="store_true",
+                   help="resume even if a trajectory changed since the run began (its frames "
+                        "are keyed by index: rows of both versions may mix)")
     c.add_argument("-q", "--quiet", action="store_true",
                    help="no progress line; print the summary only if some items failed")
     c.add_argument("--json", action="store_true", help="print the run summary as JSON")

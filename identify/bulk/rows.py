@@ -15,7 +15,7 @@ from dataclasses import asdict, dataclass
 from ..errors import KnotsiftError
 
 __all__ = ["COLUMNS", "TIMING_COLUMNS", "ClassifyOptions", "classify_item", "classify_chunk",
-           "row_from_result"]
+           "row_from_result", "error_rows"]
 
 #: (name, type, meaning) of every output column, in order; type is int, float or text.
 COLUMNS: tuple[tuple[str, str, str], ...] = (
@@ -281,6 +281,16 @@ def classify_item(item, options: ClassifyOptions | None = None, table=None) -> l
         _fail(row, exc)
     row["seconds"] = time.perf_counter() - start
     return [_finish(row)]
+
+
+def error_rows(item, message: str) -> list[dict]:
+    """The rows of an item given up (one per chain), status ``error`` with ``message``."""
+    rows = []
+    for c in range(max(1, item.n_rows)):
+        row = _empty_row(item, c)
+        row["status"], row["error"], row["seconds"] = "error", message, 0.0
+        rows.append(_finish(row))
+    return rows
 
 
 def classify_chunk(items: list, options: ClassifyOptions) -> list[dict]:

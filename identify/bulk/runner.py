@@ -19,11 +19,16 @@ from collections.abc import Iterable, Iterator
 from dataclasses import dataclass, field
 
 from ..errors import KnotsiftError
-from .resume import ResumeError, pending
-from .rows import ClassifyOptions, classify_chunk
+from .resume import ResumeError, compare_inputs, pending
+from .rows import ClassifyOptions, classify_chunk, classify_item, error_rows
 from .sources import iter_items
 
-__all__ = ["classify", "RunReport", "chunked", "default_workers"]
+__all__ = ["classify", "RunReport", "chunked", "default_workers", "classify_one",
+           "classify_chunk_limited", "Terminated"]
+
+
+class Terminated(KeyboardInterrupt):
+    """Raised in the main thread when the process receives SIGTERM (handled like Ctrl-C)."""
 
 STATUS_ORDER = ("identified", "ambiguous", "not in table", "undetermined",
                 "depends on missing segment", "error")
@@ -42,6 +47,8 @@ class RunReport:
     workers: int = 1
     backend: str = "serial"
     interrupted: bool = False
+    signal: str | None = None
+    notes: list[str] = field(default_factory=list)
 
     @property
     def failed(self) -> int:
@@ -53,6 +60,7 @@ class RunReport:
                 "skipped": self.skipped, "failed": self.failed, "counts": dict(self.counts),
                 "seconds": round(self.seconds, 3), "workers": self.workers,
                 "backend": self.backend, "interrupted": self.interrupted,
+                "signal": self.signal, "notes": list(self.notes),
                 "rate": round(self.written / self.seconds, 3) if self.seconds > 0 else None}
 
     def text(self) -> str:
@@ -66,6 +74,7 @@ class RunReport:
                  f"{self.skipped} already there",
                  f"  {self.failed} failed" + (" (their rows hold the error)" if self.failed
                                               else "")]
+        lines.extend(f"  note: {n}" for n in self.notes)
         if self.interrupted:
             lines.append("  interrupted: run the same command again to continue")
         return "\n".join(lines)
@@ -97,44 +106,35 @@ def chunked(items: Iterable, size: int) -> Iterator[list]:
         yield block
 
 
-def _worker_start() -> None:
-    """Each worker process opens the reference table itself, on first use."""
-    from ..table import open_table
-
-    open_table.cache_clear()
-
-
 def _run_serial(chunks, options, write):
     for block in chunks:
         write(classify_chunk(block, options))
 
 
-def _run_processes(chunks, options, write, workers: int):
-    import multiprocessing
-    from concurrent.futures import FIRST_COMPLETED, ProcessPoolExecutor, wait
-    from concurrent.futures.process import BrokenProcessPool
+def classify_one(item, options: ClassifyOptions) -> list[dict] | None:
+    """The rows of one item in a worker process; None when it ran out of memory."""
+    rows = classify_item(item, options)
+    if any((r.get("error") or "").startswith("internal error: MemoryError") for r in rows):
+        return None
+    return rows
 
-    ctx = multiprocessing.get_context("spawn")   # no inherited state (open tables, threads)
-    limit = 2 * workers
-    pool = ProcessPoolExecutor(workers, mp_context=ctx, initializer=_worker_start)
-    running: set = set()
-    try:
-        for block in chunks:
-            running.add(pool.submit(classify_chunk, block, options))
-            if len(running) >= limit:
-                finished, running = wait(running, return_when=FIRST_COMPLETED)
-                for f in finished:
-                    write(f.result())
-        while running:
-            finished, running = wait(running, return_when=FIRST_COMPLETED)
-            for f in finished:
-                write(f.result())
-    except BrokenProcessPool:
-        raise KnotsiftError("a worker process died (killed, or out of memory); the chunks "
-                            "already written are kept: run the same command again to "
-                            "continue") from None
-    finally:
-        pool.shutdown(wait=not running, cancel_futures=True)
+
+def _run_processes(items, options, write, workers: int, chunk: int):
+    from ..limits import current
+    from .workers import run_pool
+
+    lim = current()
+    run_pool(items, options, classify_one, write, error_rows, workers=workers, chunk=chunk,
+             item_seconds=lim.item_seconds, memory_mb=lim.worker_memory_mb)
+
+
+def classify_chunk_limited(items: list, options: ClassifyOptions, limits: dict) -> list[dict]:
+    """:func:`classify_chunk` under the given limits (for Dask workers, which do not share
+    this process's environment)."""
+    from ..limits import Limits, set_limits
+
+    set_limits(Limits(**limits), export=False)
+    return classify_chunk(items, options)
 
 
 def _run_dask(chunks, options, write, workers: int, address: str):
@@ -142,6 +142,8 @@ def _run_dask(chunks, options, write, workers: int, address: str):
 
     require("dask.distributed", "bulk", "running on Dask (--dask)")
     from dask.distributed import Client, LocalCluster, as_completed
+
+    from ..limits import current
 
     cluster = None
     if address == "local":
@@ -158,26 +160,100 @@ def _run_dask(chunks, options, write, workers: int, address: str):
         n = max(1, len(client.scheduler_info().get("workers", {})) or workers)
         limit = 2 * n
         queue = as_completed()
+        blocks: dict = {}
+        limits = current().to_dict()
+
+        def submit(block, attempt=1):
+            future = client.submit(classify_chunk_limited, block, options, limits, pure=False)
+            blocks[future.key] = (block, attempt)
+            queue.add(future)
+
+        def collect(future):
+            block, attempt = blocks.pop(future.key)
+            try:
+                write(future.result())
+            except Exception as exc:  # noqa: BLE001 - a worker died: retry each item alone once
+                if attempt >= 2:
+                    write(error_rows(block[0], f"the Dask task failed twice, once alone "
+                                               f"({type(exc).__name__}: {exc})"))
+                    return
+                for item in block:
+                    submit([item], attempt=2)
+
         in_flight = 0
         for block in chunks:
-            queue.add(client.submit(classify_chunk, block, options, pure=False))
+            submit(block)
             in_flight += 1
             while in_flight >= limit:
-                write(next(queue).result())
+                collect(next(queue))
                 in_flight -= 1
         for future in queue:
-            write(future.result())
+            collect(future)
     finally:
         client.close()
         if cluster is not None:
             cluster.close()
 
 
+class _Signals:
+    """SIGINT and SIGTERM during a run: raised in the main thread, but never inside a write.
+
+    Used as a context manager around the run; :meth:`deferred` wraps each
+    write, and a signal arriving during it is raised as soon as it ends.
+    """
+
+    def __init__(self):
+        self._writing = False
+        self._pending: KeyboardInterrupt | None = None
+        self._saved: dict = {}
+
+    def _handler(self, signum, frame):
+        import signal
+
+        exc = Terminated() if signum == signal.SIGTERM else KeyboardInterrupt()
+        if self._writing:
+            self._pending = self._pending or exc
+            return
+        raise exc
+
+    def __enter__(self):
+        import signal
+        import threading
+
+        if threading.current_thread() is threading.main_thread():
+            for sig in (signal.SIGINT, signal.SIGTERM):
+                self._saved[sig] = signal.signal(sig, self._handler)
+        return self
+
+    def __exit__(self, *exc):
+        import signal
+
+        for sig, old in self._saved.items():
+            signal.signal(sig, old)
+        return False
+
+    def deferred(self):
+        signals = self
+
+        class _Writing:
+            def __enter__(self):
+                signals._writing = True
+
+            def __exit__(self, *exc):
+                signals._writing = False
+                if signals._pending is not None and exc[0] is None:
+                    pending_exc, signals._pending = signals._pending, None
+                    raise pending_exc
+                return False
+
+        return _Writing()
+
+
 def classify(inputs: Iterable[str | os.PathLike], out: str | os.PathLike, *,
              fmt: str = "auto", codes_column: str = "code", label_column: str = "label",
              options: ClassifyOptions | None = None, workers: int | None = None,
              dask: str | None = None, chunk: int = 200, progress: bool | None = None,
-             table_name: str = "classifications") -> RunReport:
+             table_name: str = "classifications", force: bool = False) -> RunReport:
     """Classify every item of the inputs into ``out``, resuming what is already there.
 
     Parameters
@@ -200,6 +276,9 @@ def classify(inputs: Iterable[str | os.PathLike], out: str | os.PathLike, *,
         Items per chunk: the unit of work and of each committed write.
     progress : bool, optional
         Show a progress line (default: when standard error is a terminal).
+    force : bool
+        Resume even when a trajectory changed since the run began
+        (see :func:`knotsift.bulk.resume.compare_inputs`).
 
     Returns
     -------
@@ -213,24 +292,52 @@ def classify(inputs: Iterable[str | os.PathLike], out: str | os.PathLike, *,
         Before any work, for missing inputs, a missing table, or an output that
         cannot be opened or was written with other options.
     """
-    import sys
-
-    from ..progress import Progress
     from ..table import open_table
+    from .lock import lock_output
     from .sinks import open_sink
+    from .sources import input_plan
 
     options = options or ClassifyOptions()
     workers = workers or default_workers()
     if workers < 1:
         raise KnotsiftError(f"workers must be at least 1, got {workers}", value=workers)
+    from ..limits import check_at_most
+
+    check_at_most("closures", options.n_closures, "--closures")
+    if options.seed < 0:
+        raise KnotsiftError(f"the seed must be 0 or more, got {options.seed}",
+                            value=options.seed)
     open_table(options.table)   # fail before any work when the table is missing
     read = dict(fmt=fmt, codes_column=codes_column, label_column=label_column,
                 closed=options.closed, beads_per_chain=options.beads_per_chain,
                 reader=options.reader_options())
+    inputs = list(inputs)
     items = iter_items(inputs, **read)
     sink = open_sink(out, table_name)
-    sink.prepare(options.to_dict())
-    done = sink.done()
+    lock = lock_output(sink, table_name)   # one writer per output, released at the end
+    try:
+        try:
+            sink.prepare(options.to_dict())
+            done = sink.done()
+            record, notes = compare_inputs(sink.stored_inputs(),
+                                           input_plan(inputs, fmt, codes_column), force)
+            sink.record_inputs(record)
+        except OSError as exc:
+            raise ResumeError(f"cannot use the output {sink.where}: {exc.strerror or exc}",
+                              where=str(sink.where)) from None
+        report = _run(inputs, read, sink, done, options, workers, dask, chunk, progress)
+        report.notes = notes
+        return report
+    finally:
+        lock.release()
+
+
+def _run(inputs, read, sink, done, options, workers, dask, chunk, progress) -> RunReport:
+    import sys
+
+    from ..progress import Progress
+
+    items = iter_items(inputs, **read)
     report = RunReport(out=str(sink.where), workers=workers,
                        backend="dask" if dask else ("process" if workers > 1 else "serial"))
     show = sys.stderr.isatty() if progress is None else progress
@@ -240,24 +347,34 @@ def classify(inputs: Iterable[str | os.PathLike], out: str | os.PathLike, *,
     bar = Progress(total, label="classify", enabled=show)
     statuses: Counter = Counter()
 
-    def write(rows: list[dict]) -> None:
-        sink.write(rows)
-        report.written += len(rows)
-        statuses.update(r["status"] for r in rows)
-        failed = statuses["error"]
-        bar.update(len(rows), detail=f"{failed} failed" if failed else "")
+    signals = _Signals()
 
-    chunks = chunked(pending(items, done, statuses), chunk)
+    def write(rows: list[dict]) -> None:
+        with signals.deferred():   # a chunk is written whole before a signal is acted on
+            try:
+                sink.write(rows)
+            except OSError as exc:
+                raise ResumeError(f"cannot write to {sink.where}: {exc.strerror or exc}; the "
+                                  "chunks written before are kept", where=str(sink.where)
+                                  ) from None
+            report.written += len(rows)
+            statuses.update(r["status"] for r in rows)
+            failed = statuses["error"]
+            bar.update(len(rows), detail=f"{failed} failed" if failed else "")
+
+    todo = pending(items, done, statuses)
     start = time.monotonic()
     try:
-        if dask:
-            _run_dask(chunks, options, write, workers, dask)
-        elif workers == 1:
-            _run_serial(chunks, options, write)
-        else:
-            _run_processes(chunks, options, write, workers)
-    except KeyboardInterrupt:
+        with signals:
+            if dask:
+                _run_dask(chunked(todo, chunk), options, write, workers, dask)
+            elif workers == 1:
+                _run_serial(chunked(todo, chunk), options, write)
+            else:
+                _run_processes(todo, options, write, workers, chunk)
+    except KeyboardInterrupt as exc:
         report.interrupted = True
+        report.signal = "SIGTERM" if isinstance(exc, Terminated) else "SIGINT"
     finally:
         report.seconds = time.monotonic() - start
         bar.close()

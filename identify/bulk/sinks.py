@@ -64,6 +64,31 @@ def _meta(options: dict) -> dict:
     return {"knotsift_bulk": OUTPUT_SCHEMA, "columns": list(COLUMN_NAMES), "options": options}
 
 
+def _load_meta(raw, where: str) -> dict:
+    """The stored metadata as a dict, or a ResumeError naming the output."""
+    try:
+        meta = json.loads(raw)
+    except (TypeError, ValueError):
+        meta = None
+    if not isinstance(meta, dict):
+        raise ResumeError(f"{where} has damaged knotsift metadata (not a JSON object); write "
+                          "to a new --out", where=where)
+    return meta
+
+
+def _load_inputs(raw, where: str) -> dict:
+    if raw is None:
+        return {}
+    try:
+        record = json.loads(raw)
+    except ValueError:
+        record = None
+    if not isinstance(record, dict):
+        raise ResumeError(f"{where} has a damaged record of its inputs; write to a new --out",
+                          where=where)
+    return record
+
+
 def _check_meta(stored: dict, options: dict, where: str) -> None:
     if stored.get("knotsift_bulk") != OUTPUT_SCHEMA or stored.get("columns") != list(COLUMN_NAMES):
         raise ResumeError(f"{where} holds results of another knotsift output layout "
@@ -112,14 +137,50 @@ class SQLSink:
         self._sa = sa
 
     def _connect_error(self, exc) -> ResumeError:
-        return ResumeError(f"cannot reach the database {self.where}: "
-                           f"{str(exc).splitlines()[0]}", where=self.where)
+        first = str(exc).splitlines()[0]
+        if "not a database" in first or "malformed" in first or "encrypted" in first:
+            return ResumeError(f"{self.where} is not a readable SQLite database (corrupt or "
+                               f"another kind of file: {first}); write to a new --out",
+                               where=self.where)
+        return ResumeError(f"cannot use the database {self.where}: {first}", where=self.where)
+
+    def _check_foreign(self, conn) -> None:
+        """Refuse a database whose table of that name was not written by knotsift."""
+        sa = self._sa
+        inspector = sa.inspect(conn)
+        if not inspector.has_table(self.table.name):
+            return
+        columns = [c["name"] for c in inspector.get_columns(self.table.name)]
+        if columns != list(COLUMN_NAMES) or not inspector.has_table(self.meta_table.name):
+            raise ResumeError(f"{self.where} holds a table {self.table.name!r} that was not "
+                              "written by knotsift classify (other columns or no "
+                              f"{self.meta_table.name!r}); write to a new --out",
+                              where=self.where)
+
+    def stored_inputs(self) -> dict:
+        """The record of the inputs of earlier runs (see knotsift.bulk.resume.input_record)."""
+        sa = self._sa
+        try:
+            with self.engine.connect() as conn:
+                raw = conn.execute(sa.select(self.meta_table.c.value).where(
+                    self.meta_table.c.name == "inputs")).scalar()
+        except sa.exc.DBAPIError as exc:
+            raise self._connect_error(exc) from None
+        return _load_inputs(raw, self.where)
+
+    def record_inputs(self, record: dict) -> None:
+        sa = self._sa
+        with self.engine.begin() as conn:
+            conn.execute(self.meta_table.delete().where(self.meta_table.c.name == "inputs"))
+            conn.execute(self.meta_table.insert(), [{"name": "inputs",
+                                                     "value": json.dumps(record)}])
 
     def prepare(self, options: dict) -> None:
         """Create the tables if needed; store the options or check them against the stored."""
         sa = self._sa
         try:
             with self.engine.begin() as conn:
+                self._check_foreign(conn)
                 self._md.create_all(conn, checkfirst=True)
                 stored = conn.execute(sa.select(self.meta_table.c.value).where(
                     self.meta_table.c.name == "meta")).scalar()
@@ -127,9 +188,9 @@ class SQLSink:
                     conn.execute(self.meta_table.insert(),
                                  [{"name": "meta", "value": json.dumps(_meta(options))}])
                     return
-        except sa.exc.OperationalError as exc:
+        except sa.exc.DBAPIError as exc:
             raise self._connect_error(exc) from None
-        _check_meta(json.loads(stored), options, self.where)
+        _check_meta(_load_meta(stored, self.where), options, self.where)
 
     def done(self) -> dict[str, str]:
         """Key -> status of every row already stored."""
@@ -143,7 +204,7 @@ class SQLSink:
                     sa.select(self.table.c.key, self.table.c.status))
                 for key, status in result:
                     out[key] = status
-        except sa.exc.OperationalError as exc:
+        except sa.exc.DBAPIError as exc:
             raise self._connect_error(exc) from None
         return out
 
@@ -160,11 +221,15 @@ class SQLSink:
 
         sa = self._sa
         cols = [self.table.c[c] for c in (columns or COLUMN_NAMES)]
-        with self.engine.connect() as conn:
-            if not sa.inspect(conn).has_table(self.table.name):
-                raise ResumeError(f"{self.where} has no table {self.table.name!r}",
-                                  where=self.where)
-            df = pd.read_sql(sa.select(*cols).order_by(self.table.c.key), conn)
+        try:
+            with self.engine.connect() as conn:
+                if not sa.inspect(conn).has_table(self.table.name):
+                    raise ResumeError(f"{self.where} has no table {self.table.name!r}: not a "
+                                      "knotsift classify output", where=self.where)
+                self._check_foreign(conn)
+                df = pd.read_sql(sa.select(*cols).order_by(self.table.c.key), conn)
+        except sa.exc.DBAPIError as exc:
+            raise self._connect_error(exc) from None
         kinds = {name: kind for name, kind, _ in COLUMNS}
         return df.astype({c: _PANDAS_DTYPES[kinds[c]] for c in df.columns})
 
@@ -181,20 +246,39 @@ class CSVSink:
         self.where = str(self.path)
         self._end = 0
         self._chunks = 0
+        self._inputs = None
 
     def _read_manifest(self) -> tuple[dict | None, int, int]:
         """(header, committed end offset, committed chunks); cuts a torn last line."""
         if not self.manifest.exists():
             return None, 0, 0
-        raw = self.manifest.read_bytes()
+        try:
+            raw = self.manifest.read_bytes()
+        except OSError as exc:
+            raise ResumeError(f"cannot read {self.manifest}: {exc.strerror}",
+                              where=self.where) from None
         good = raw[:raw.rfind(b"\n") + 1]
         header, end, chunks = None, 0, 0
-        for line in good.splitlines():
-            record = json.loads(line)
-            if "knotsift_bulk" in record:
-                header = record
-            else:
-                end, chunks = record["end"], record["chunk"] + 1
+        self._inputs = None
+        for n, line in enumerate(good.splitlines(), 1):
+            try:
+                record = json.loads(line)
+                if not isinstance(record, dict):
+                    raise TypeError
+                if "knotsift_bulk" in record:
+                    header = record
+                elif "inputs" in record:
+                    self._inputs = record["inputs"]
+                else:
+                    end, chunks = int(record["end"]), int(record["chunk"]) + 1
+            except (ValueError, TypeError, KeyError):
+                raise ResumeError(f"{self.manifest}, line {n}: damaged manifest (expected a "
+                                  "JSON record written by knotsift classify); write to a new "
+                                  "--out", where=self.where) from None
+            if n == 1 and header is None:
+                raise ResumeError(f"{self.manifest} does not start with knotsift's header: "
+                                  "not a knotsift output; write to a new --out",
+                                  where=self.where)
         if len(good) != len(raw):
             with open(self.manifest, "r+b") as fh:
                 fh.truncate(len(good))
@@ -232,9 +316,25 @@ class CSVSink:
 
         if self._end == 0:
             return {}
-        df = pd.read_csv(self.path, usecols=["key", "status"], dtype=str,
-                         keep_default_na=False, nrows=None)
+        try:
+            df = pd.read_csv(self.path, usecols=["key", "status"], dtype=str,
+                             keep_default_na=False, nrows=None)
+        except (ValueError, pd.errors.ParserError, UnicodeDecodeError) as exc:
+            raise ResumeError(f"{self.path} cannot be read back as a knotsift output "
+                              f"({str(exc).splitlines()[0]}); write to a new --out",
+                              where=self.where) from None
         return dict(zip(df["key"], df["status"], strict=True))
+
+    def stored_inputs(self) -> dict:
+        self._read_manifest()
+        return _load_inputs(None if self._inputs is None else json.dumps(self._inputs),
+                            self.where)
+
+    def record_inputs(self, record: dict) -> None:
+        with open(self.manifest, "ab") as fh:
+            fh.write((json.dumps({"inputs": record}) + "\n").encode())
+            fh.flush()
+            os.fsync(fh.fileno())
 
     def write(self, rows: list[dict]) -> None:
         """Append the chunk, fsync it, then commit it with one manifest line."""
@@ -270,9 +370,13 @@ class CSVSink:
         with open(self.path, "rb") as fh:
             data = fh.read(end)
         text_cols = [c for c in cols if kinds[c] == "text"]
-        df = pd.read_csv(io.BytesIO(data), usecols=cols,
-                         dtype={c: _PANDAS_DTYPES[kinds[c]] if kinds[c] != "text" else str
-                                for c in cols})
+        try:
+            df = pd.read_csv(io.BytesIO(data), usecols=cols,
+                             dtype={c: _PANDAS_DTYPES[kinds[c]] if kinds[c] != "text" else str
+                                    for c in cols})
+        except (ValueError, pd.errors.ParserError, UnicodeDecodeError) as exc:
+            raise ResumeError(f"{self.path} cannot be read back as a knotsift output "
+                              f"({str(exc).splitlines()[0]})", where=self.where) from None
         for c in text_cols:  # CSV cannot tell None from "": both read back as None
             df[c] = df[c].astype(object).where(df[c].notna(), None)
         return df[cols].sort_values("key", kind="stable").reset_index(drop=True) \
@@ -307,7 +411,7 @@ class ParquetSink:
                 raise ResumeError(f"{self.path} exists but was not written by knotsift classify "
                                   f"(no {self.META}); write to a new --out", where=self.where)
         if meta.exists():
-            _check_meta(json.loads(meta.read_text()), options, self.where)
+            _check_meta(_load_meta(meta.read_bytes(), self.where), options, self.where)
         else:
             self.path.mkdir(parents=True, exist_ok=True)
             tmp = self.path / f".{self.META}.{uuid.uuid4().hex}.tmp"
@@ -317,6 +421,27 @@ class ParquetSink:
         for stale in self.path.glob(".part-*.tmp"):  # a part being written when a run died
             stale.unlink()
 
+    def _read_part(self, part: Path, columns: list[str]):
+        import pyarrow as pa
+        import pyarrow.parquet as pq
+
+        try:
+            return pq.read_table(part, columns=columns)
+        except (pa.ArrowException, OSError, KeyError) as exc:
+            raise ResumeError(f"{part} cannot be read as a part of a knotsift output "
+                              f"({str(exc).splitlines()[0]}); remove it or write to a new "
+                              "--out", where=self.where) from None
+
+    def stored_inputs(self) -> dict:
+        path = self.path / "_inputs.json"
+        return _load_inputs(path.read_bytes() if path.exists() else None, self.where)
+
+    def record_inputs(self, record: dict) -> None:
+        tmp = self.path / f"._inputs.json.{uuid.uuid4().hex}.tmp"
+        tmp.write_text(json.dumps(record))
+        os.replace(tmp, self.path / "_inputs.json")
+        _fsync_dir(self.path)
+
     def _parts(self) -> list[Path]:
         return sorted(self.path.glob("part-*.parquet"))
 
@@ -325,7 +450,7 @@ class ParquetSink:
 
         out: dict[str, str] = {}
         for part in self._parts():
-            t = pq.read_table(part, columns=["key", "status"])
+            t = self._read_part(part, ["key", "status"])
             keys, statuses = t.column("key").to_pylist(), t.column("status").to_pylist()
             out.update(zip(keys, statuses, strict=True))
         return out
@@ -356,7 +481,10 @@ class ParquetSink:
         parts = self._parts()
         if not parts:
             return rows_to_frame([])[cols]
-        table = pa.concat_tables([pq.read_table(p, columns=cols) for p in parts])
+        if not (self.path / self.META).exists():
+            raise ResumeError(f"{self.path} has no {self.META}: not a knotsift output",
+                              where=self.where)
+        table = pa.concat_tables([self._read_part(p, cols) for p in parts])
         df = table.to_pandas()
         kinds = {name: kind for name, kind, _ in COLUMNS}
         df = df.astype({c: _PANDAS_DTYPES[kinds[c]] for c in cols})
@@ -367,23 +495,34 @@ class ParquetSink:
         pass
 
 
-def open_sink(out: str | os.PathLike, table: str = DEFAULT_TABLE):
+def open_sink(out: str | os.PathLike, table: str = DEFAULT_TABLE, create: bool = True):
     """The sink for an ``--out`` value, chosen by its form.
 
     ``*.csv`` -> :class:`CSVSink`; ``*.parquet`` -> :class:`ParquetSink`;
     a URL (``scheme://...``) or ``*.sqlite``, ``*.sqlite3``, ``*.db`` ->
     :class:`SQLSink` (a file path becomes an SQLite URL).
 
+    With ``create=False`` (reading), a file output that does not exist is an
+    error and nothing is created.
+
     Raises
     ------
     ResumeError
-        For any other form.
+        For any other form, or a missing output with ``create=False``.
     """
     text = str(out)
     if "://" in text:
+        if not create and text.startswith("sqlite:///"):
+            db = text[len("sqlite:///"):].split("?", 1)[0]
+            if db and not Path(db).is_file():
+                raise ResumeError(f"no such output: {db}", value=text, where=db)
         return SQLSink(text, table)
     path = Path(text)
     ext = path.suffix.lower()
+    if not create and ext in (".csv", ".parquet", ".sqlite", ".sqlite3", ".db") \
+            and not path.exists():
+        raise ResumeError(f"no such output: {path} (give the --out of a classify run)",
+                          value=text, where=text)
     if ext == ".csv":
         return CSVSink(path)
     if ext == ".parquet":
@@ -392,7 +531,15 @@ def open_sink(out: str | os.PathLike, table: str = DEFAULT_TABLE):
         require("pyarrow", "bulk", "writing Parquet outputs")
         return ParquetSink(path)
     if ext in (".sqlite", ".sqlite3", ".db"):
-        path.parent.mkdir(parents=True, exist_ok=True)
+        if path.is_dir():
+            raise ResumeError(f"{path} is a folder, not an SQLite file; write to a new --out",
+                              where=text)
+        if create:
+            try:
+                path.parent.mkdir(parents=True, exist_ok=True)
+            except OSError as exc:
+                raise ResumeError(f"cannot create the folder of {path}: {exc.strerror}",
+                                  where=text) from None
         return SQLSink(f"sqlite:///{path.resolve()}", table)
     raise ResumeError(f"--out must end in .csv, .parquet, .sqlite or .db, or be a database URL "
                       f"such as postgresql://user@host/db; got {text!r}", value=text)

@@ -1,8 +1,14 @@
 """The items to classify: rows of a table of diagram codes, frames of trajectories.
 
-Every output row has a deterministic key built from its source file, its
-frame and its chain (:func:`knotsift.bulk.resume.item_key`), so a second run
-over the same input can tell which rows are already done.  A code is one
+Every output row has a deterministic key (:func:`knotsift.bulk.resume.item_key`),
+so a second run over the same input can tell which rows are already done.
+The file part of a key is the resolved file (its real path), so the same file
+given by another spelling (relative, absolute, through a link) has the same
+keys.  A trajectory frame is keyed by its index and chain; a row of a code
+table by its label when it has one, otherwise by a hash of its code and other
+columns, never by its line number, so rows inserted or moved between runs do
+not shift the keys of the others (a repeated label or content gets ``~2``,
+``~3``... in the order met).  A code is one
 item and one row; a trajectory frame is one item (its chains are classified
 together, since linking numbers and contacts between chains need them all)
 and one row per chain.  Items are produced lazily,
@@ -12,7 +18,7 @@ Inputs of diagram codes (``fmt="codes"``) are either a table with a header
 (comma or tab separated, the codes in ``codes_column``; the other columns are
 carried into the row's ``fields``), or the line format of ``knotsift identify
 --file`` (one code per line, ``label<TAB>code`` allowed, ``#`` comments).  The
-frame of a code item is its line number in the file.
+frame of a code item is its line number in the file (shown in the row, not part of its key).
 
 Trajectories (``xyz``, ``pdb``, ``csv``, ``npy``) are read by
 :mod:`knotsift.curves`; a frame the reader cannot read becomes an item
@@ -22,8 +28,10 @@ carrying the reader's error, and the run goes on.
 from __future__ import annotations
 
 import csv
+import hashlib
 import json
 import os
+from urllib.parse import quote
 from collections.abc import Iterable, Iterator
 from dataclasses import dataclass
 from pathlib import Path
@@ -31,7 +39,7 @@ from pathlib import Path
 from ..errors import CurveError, KnotsiftError, NotationError
 from .resume import item_key
 
-__all__ = ["Item", "FORMATS", "CURVE_FORMATS", "detect_format", "iter_items"]
+__all__ = ["Item", "FORMATS", "CURVE_FORMATS", "detect_format", "iter_items", "input_plan"]
 
 #: Trajectory formats, read by knotsift.curves (the MD ones through MDAnalysis).
 CURVE_FORMATS = ("xyz", "pdb", "csv", "npy", "lammps-data", "lammps-dump", "dcd", "xtc",
@@ -69,6 +77,8 @@ class Item:
         becomes a row with status ``error``.
     n_rows : int
         Rows this item gives: 1 for a code, the number of chains for a frame.
+    origin : str
+        The resolved input file (real path), the file part of the keys.
     """
 
     key: str
@@ -81,13 +91,14 @@ class Item:
     fields: str = ""
     error: str | None = None
     n_rows: int = 1
+    origin: str = ""
 
     @property
     def keys(self) -> tuple[str, ...]:
         """The keys of the rows of this item, one per chain."""
         if self.n_rows == 1:
             return (self.key,)
-        return tuple(item_key(self.source, self.frame, self.chain + c)
+        return tuple(item_key(self.origin or self.source, self.frame, self.chain + c)
                      for c in range(self.n_rows))
 
 
@@ -139,8 +150,29 @@ def detect_format(path: str | os.PathLike, codes_column: str = "code") -> str:
     return "codes"
 
 
-def _code_items(path: Path, source: str, codes_column: str, label_column: str
-                ) -> Iterator[Item]:
+class _CodeKeys:
+    """Keys of the rows of one code file: by label, else by content; repeats numbered."""
+
+    def __init__(self, origin: str):
+        self.origin = origin
+        self.seen: dict[bytes, int] = {}
+
+    def __call__(self, code: str, label: str, fields: str) -> str:
+        if label:
+            ident = "label=" + quote(label, safe="")
+        else:
+            digest = hashlib.blake2b(f"{code}\x1f{fields}".encode("utf-8", "replace"),
+                                     digest_size=10).hexdigest()
+            ident = "code=" + digest
+        tag = ident.encode()
+        n = self.seen.get(tag, 0) + 1
+        self.seen[tag] = n
+        return item_key(self.origin, ident if n == 1 else f"{ident}~{n}", 0)
+
+
+def _code_items(path: Path, source: str, codes_column: str, label_column: str,
+                origin: str) -> Iterator[Item]:
+    key = _CodeKeys(origin)
     with open(path, encoding="utf-8", errors="replace", newline="") as fh:
         lines = enumerate(fh, 1)
         header: list[str] | None = None
@@ -152,14 +184,19 @@ def _code_items(path: Path, source: str, codes_column: str, label_column: str
             columns, delimiter = _header(s)
             if codes_column in columns:
                 header = columns
+            elif len(columns) > 1 and delimiter == "," and _looks_like_header(columns):
+                raise NotationError(
+                    f"this looks like a table header ({', '.join(columns)}) without the "
+                    f"expected code column {codes_column!r}; name the column holding the "
+                    "codes with --codes-column", value=columns, where=f"{source}, line {n}")
             else:
-                yield _line_item(source, n, s)
+                yield _line_item(source, n, s, key, origin)
             break
         if header is None:
             for n, line in lines:
                 s = line.strip()
                 if s and not s.startswith("#"):
-                    yield _line_item(source, n, s)
+                    yield _line_item(source, n, s, key, origin)
             return
         at = header.index(codes_column)
         for n, line in lines:
@@ -175,13 +212,20 @@ def _code_items(path: Path, source: str, codes_column: str, label_column: str
             if len(values) != len(header):
                 error = (f"{source}, line {n}: expected {len(header)} columns as in the "
                          f"header, got {len(values)}")
-            yield Item(item_key(source, n, 0), source, n, 0, "code", code, label,
-                       json.dumps(row, sort_keys=True) if row else "", error)
+            fields = json.dumps(row, sort_keys=True) if row else ""
+            yield Item(key(code, label, fields), source, n, 0, "code", code, label, fields,
+                       error, origin=origin)
 
 
-def _line_item(source: str, n: int, s: str) -> Item:
+def _looks_like_header(columns: list[str]) -> bool:
+    """Names of columns (words), not codes: no column holds a digit."""
+    return all(c and c[0].isalpha() and not any(ch.isdigit() for ch in c) for c in columns)
+
+
+def _line_item(source: str, n: int, s: str, key: _CodeKeys, origin: str) -> Item:
     label, code = s.split("\t", 1) if "\t" in s else ("", s)
-    return Item(item_key(source, n, 0), source, n, 0, "code", code.strip(), label.strip())
+    label, code = label.strip(), code.strip()
+    return Item(key(code, label, ""), source, n, 0, "code", code, label, origin=origin)
 
 
 def _curve_reader():
@@ -199,16 +243,17 @@ def _curve_reader():
 
 
 def _curve_items(path: Path, source: str, fmt: str, closed: bool | None,
-                 beads_per_chain: int | None, reader: dict | None = None) -> Iterator[Item]:
+                 beads_per_chain: int | None, origin: str, reader: dict | None = None
+                 ) -> Iterator[Item]:
     """One item per frame from knotsift.curves' streaming reader; bad frames as error items."""
     read_frames = _curve_reader()
     extra = {"beads_per_chain": beads_per_chain} if beads_per_chain and fmt == "xyz" else {}
     try:
         frames = read_frames(path, format=fmt, closed=closed, errors="yield", **extra,
                              **(reader or {}))
-    except KnotsiftError as exc:  # the file cannot be opened (topology, selection, extra)
-        yield Item(item_key(source, -1, 0), source, -1, 0, "frame", None,
-                   error=f"{source}: cannot read: {exc}")
+    except KnotsiftError as exc:   # the file cannot be read at all: one error row, the run goes on
+        yield Item(item_key(origin, -1, 0), source, -1, 0, "frame", None,
+                   error=f"{source}: cannot be read: {exc}", origin=origin)
         return
     while True:
         try:
@@ -216,18 +261,19 @@ def _curve_items(path: Path, source: str, fmt: str, closed: bool | None,
         except StopIteration:
             return
         except KnotsiftError as exc:  # the reader cannot go on in this file
-            yield Item(item_key(source, -1, 0), source, -1, 0, "frame", None,
-                       error=f"{source}: reading stopped: {exc}")
+            yield Item(item_key(origin, -1, 0), source, -1, 0, "frame", None,
+                       error=f"{source}: reading stopped: {exc}", origin=origin)
             return
         index = frame.index
         error = getattr(frame, "error", None)
         if error is not None:
-            yield Item(item_key(source, index, 0), source, index, 0, "frame", None,
-                       error=str(error))
+            yield Item(item_key(origin, index, 0), source, index, 0, "frame", None,
+                       error=str(error), origin=origin)
             continue
         frame.source = source
-        yield Item(item_key(source, index, 0), source, index, 0, "frame", frame,
-                   getattr(frame, "comment", "") or "", n_rows=max(1, len(frame.chains)))
+        yield Item(item_key(origin, index, 0), source, index, 0, "frame", frame,
+                   getattr(frame, "comment", "") or "", n_rows=max(1, len(frame.chains)),
+                   origin=origin)
 
 
 def iter_items(inputs: Iterable[str | os.PathLike], fmt: str = "auto", *,
@@ -275,22 +321,42 @@ def iter_items(inputs: Iterable[str | os.PathLike], fmt: str = "auto", *,
     if fmt not in FORMATS:
         raise NotationError(f"format must be one of {', '.join(FORMATS)}, got {fmt!r}",
                             value=fmt)
-    paths = [Path(p) for p in inputs]
-    for p in paths:
-        if not p.is_file():
-            raise NotationError(f"input {p} does not exist or is not a file", value=str(p))
-    plan = [(p, fmt if fmt != "auto" else detect_format(p, codes_column)) for p in paths]
+    plan = input_plan(inputs, fmt, codes_column)
     if any(used != "codes" for _, used in plan):
         _curve_reader()  # a missing 3D reader is reported now, not half-way through a run
     return _items(plan, codes_column, label_column, closed, beads_per_chain, reader)
+
+
+def input_plan(inputs: Iterable[str | os.PathLike], fmt: str = "auto",
+               codes_column: str = "code") -> list[tuple[Path, str]]:
+    """(path, format) of every input, each checked to be a readable regular file.
+
+    Raises
+    ------
+    NotationError
+        For a missing, unreadable or non-regular input (a folder, a device).
+    """
+    if fmt not in FORMATS:
+        raise NotationError(f"format must be one of {', '.join(FORMATS)}, got {fmt!r}",
+                            value=fmt)
+    paths = [Path(p) for p in inputs]
+    for p in paths:
+        if not p.is_file():
+            raise NotationError(f"input {p} does not exist or is not a regular file",
+                                value=str(p))
+        if not os.access(p, os.R_OK):
+            raise NotationError(f"input {p} cannot be read (permission denied)", value=str(p))
+    return [(p, fmt if fmt != "auto" else detect_format(p, codes_column)) for p in paths]
 
 
 def _items(plan, codes_column: str, label_column: str, closed, beads_per_chain, reader=None
            ) -> Iterator[Item]:
     for path, used in plan:
         source = os.path.normpath(str(path))
+        origin = os.path.realpath(path)
         if used == "codes":
-            yield from _code_items(path, source, codes_column, label_column)
+            yield from _code_items(path, source, codes_column, label_column, origin)
         else:
-            yield from _curve_items(path, source, used, closed, beads_per_chain, reader)
+            yield from _curve_items(path, source, used, closed, beads_per_chain, origin,
+                                    reader)
 

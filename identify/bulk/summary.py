@@ -370,7 +370,7 @@ def read_results(out, table: str = "classifications"):
     """The rows of a classify output (CSV, Parquet, SQLite or a database URL) as a DataFrame."""
     from .sinks import open_sink
 
-    sink = open_sink(out, table)
+    sink = open_sink(out, table, create=False)
     try:
         return sink.read()
     finally:

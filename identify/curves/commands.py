@@ -16,14 +16,21 @@ CHAINS_BY_CHOICES = ("auto", "molecules", "fragments", "segments", "one")
 CLOSURE_CHOICES = ("direct", "far", "stochastic")
 
 
-def _positive(text: str) -> int:
-    try:
-        n = int(text)
-    except ValueError:
-        raise argparse.ArgumentTypeError(f"expected a positive integer, got {text!r}") from None
-    if n < 1:
-        raise argparse.ArgumentTypeError(f"expected a positive integer, got {n}")
-    return n
+def _integer_at_least(minimum: int, words: str):
+    """An argparse type: an integer of at least ``minimum`` (``words`` says it in the message)."""
+    def convert(text: str) -> int:
+        try:
+            n = int(text)
+        except ValueError:
+            raise argparse.ArgumentTypeError(f"expected {words}, got {text!r}") from None
+        if n < minimum:
+            raise argparse.ArgumentTypeError(f"expected {words}, got {n}")
+        return n
+    return convert
+
+
+_positive = _integer_at_least(1, "a positive integer")
+_nonnegative = _integer_at_least(0, "an integer 0 or more")
 
 
 def _length(text: str) -> float:
@@ -78,6 +85,9 @@ def _cmd_curve(args) -> int:
 
         print("knotsift curve: no input (give a coordinate file or --demo)", file=sys.stderr)
         return 2
+    from ..limits import check_at_most
+
+    check_at_most("closures", args.closures, "--closures")
     table = open_table(args.table)
     frames = parse_frames(args.frames) if args.frames else None
     status = 0
@@ -115,7 +125,8 @@ def register(sub) -> None:
                         "over random closures)")
     c.add_argument("--closures", type=_positive, default=100, metavar="N",
                    help="number of random closures (default 100)")
-    c.add_argument("--seed", type=int, default=0, help="seed of every random step (default 0)")
+    c.add_argument("--seed", type=_nonnegative, default=0,
+                   help="seed of every random step (default 0)")
     c.add_argument("--core", action="store_true",
                    help="also find the knotted core (the shortest subchain keeping the type)")
     c.add_argument("--frames", metavar="START:STOP",

@@ -114,6 +114,13 @@ def _frames(path: Path, header: list[str], delim: str, closed: bool, sel: slice,
             if not row or all(not c.strip() for c in row):
                 continue
             this = row[ifr].strip() if ifr is not None and ifr < len(row) else None
+            if this is not None and not this.lstrip("-").isdigit():
+                err = CurveError(f"the frame column holds {this[:20]!r}; expected an integer "
+                                 "frame number", value=this, where=f"{src}, line {lineno}")
+                if errors == "raise":
+                    raise err
+                yield FrameFailure(src, max(index, 0), err)
+                return
             if index < 0 or (ifr is not None and this != label):
                 out = flush()
                 if out is not None:

@@ -31,6 +31,8 @@ __all__ = [
 
 #: A chain needs at least this many beads (after repeated beads are dropped).
 MIN_BEADS = 4
+#: Largest |coordinate| accepted: products of three coordinates stay finite in float64.
+MAX_COORDINATE = 1e100
 #: Beads closer than this to the previous bead (in median bond lengths) are repeats.
 DUPLICATE_TOL = 1e-4
 #: Consecutive bonds whose overlap comes within this distance (bond lengths) fold back.
@@ -199,6 +201,12 @@ def prepare_chains(chains: list[Chain], where: str = "") -> PreparedChains:
         if len(x) < MIN_BEADS:
             raise CurveError(f"a chain needs at least {MIN_BEADS} beads, got {len(x)}",
                              value=len(x), where=loc(ch.id))
+        big = np.abs(x).max()
+        if big > MAX_COORDINATE:   # squares and cross products would overflow
+            k = int(np.argmax(np.abs(x).max(axis=1)))
+            raise CurveError(f"coordinate {big:.3g} is beyond {MAX_COORDINATE:.0e} in absolute "
+                             "value: rescale the coordinates (units do not matter)",
+                             value=float(big), where=loc(ch.id, f"bead {k}"))
         arrays.append(x)
     everything = np.concatenate(arrays)
     lengths = np.concatenate([np.linalg.norm(_bonds(x, ch.closed), axis=1)

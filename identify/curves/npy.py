@@ -24,9 +24,32 @@ def _chain_name(k: int) -> str:
     return "ABCDEFGHIJKLMNOPQRSTUVWXYZ"[k] if k < 26 else f"C{k}"
 
 
+def _declared(fh) -> tuple[tuple, np.dtype]:
+    """(shape, dtype) from a .npy header, read without loading the array."""
+    fmt = np.lib.format
+    version = fmt.read_magic(fh)
+    read = fmt.read_array_header_1_0 if version == (1, 0) else fmt.read_array_header_2_0
+    shape, _, dtype = read(fh)
+    return shape, dtype
+
+
+def _check_size(shape, dtype, src: str, available: int | None) -> None:
+    from ..limits import check_at_most, check_declared_size
+
+    nbytes = int(np.prod(shape, dtype=object)) * int(dtype.itemsize)
+    check_at_most("array_bytes", nbytes, f"the array of shape {tuple(shape)} ({dtype}) in bytes",
+                  where=src)
+    if available is not None:
+        check_declared_size(nbytes, available, f"the header (shape {tuple(shape)})", where=src)
+
+
 def _open(path: Path, key: str | None) -> np.ndarray:
     src = str(path)
     try:
+        if path.suffix.lower() != ".npz":
+            with open(path, "rb") as fh:
+                shape, dtype = _declared(fh)
+                _check_size(shape, dtype, src, path.stat().st_size - fh.tell())
         if path.suffix.lower() == ".npz":
             with np.load(path, allow_pickle=False) as z:
                 names = list(z.files)
@@ -42,11 +65,18 @@ def _open(path: Path, key: str | None) -> np.ndarray:
                 if key not in names:
                     raise CurveError(f"no array {key!r} in the archive (it holds {names})",
                                      value=key, where=src)
+                with zipfile.ZipFile(path) as archive, archive.open(f"{key}.npy") as fh:
+                    shape, dtype = _declared(fh)   # the size after decompression, checked first
+                _check_size(shape, dtype, src, None)
                 return np.asarray(z[key])
         return np.load(path, mmap_mode="r", allow_pickle=False)
     except CurveError:
         raise
-    except (ValueError, OSError, EOFError, zipfile.BadZipFile) as exc:
+    except (ValueError, OSError, EOFError, KeyError, zipfile.BadZipFile) as exc:
+        from ..limits import LimitError
+
+        if isinstance(exc, LimitError):
+            raise
         raise CurveError(f"not a readable NumPy file ({exc})", where=src) from None
 
 

@@ -25,7 +25,10 @@ COORDINATE_SUFFIXES = (".xyz", ".pdb", ".ent", ".npy", ".npz")
 def is_coordinate_file(text: str) -> bool:
     """True when ``text`` names an existing file with a coordinate or MD suffix."""
     p = Path(text)
-    if not p.is_file():  # a code, not a file: decided without importing numpy
+    try:
+        if len(text) >= 4096 or not p.is_file():  # a code: decided without importing numpy
+            return False
+    except (OSError, ValueError):   # a name too long or with a NUL byte: a code, not a file
         return False
     if p.suffix.lower() in COORDINATE_SUFFIXES:
         return True

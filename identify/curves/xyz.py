@@ -90,16 +90,28 @@ def _wanted(sel: slice, k: int) -> bool:
 
 def _frames(path: Path, closed: bool, bpc: int | None, sel: slice, errors: str
             ) -> Iterator[Frame | FrameFailure]:
+    import os
+
+    from ..limits import LimitError, check_at_most, check_declared_size
+
     src = str(path)
+    size = os.path.getsize(path)
     with open(path, encoding="utf-8", errors="replace") as fh:
         lineno = 0
         index = 0
         while True:
             if sel.stop is not None and index >= sel.stop:
                 return
-            line = fh.readline()
+            line = fh.readline(1 << 16)
             lineno += 1
             if not line:
+                if index == 0:
+                    err = CurveError("the file holds no frame (it is empty or blank): an XYZ "
+                                     "frame starts with a bead count line",
+                                     where=f"{src}, line {lineno}")
+                    if errors == "raise":
+                        raise err
+                    yield FrameFailure(src, 0, err)
                 return
             if not line.strip():
                 # blank lines between frames (or at the end) are tolerated
@@ -125,6 +137,17 @@ def _frames(path: Path, closed: bool, bpc: int | None, sel: slice, errors: str
                                  where=f"{src}, line {count_line}, frame {index}")
                 if errors == "raise":
                     raise err
+                yield FrameFailure(src, index, err)
+                return
+            try:   # the header is checked against the file before anything is allocated
+                check_at_most("beads", count, "the bead count of the frame",
+                              where=f"{src}, line {count_line}, frame {index}")
+                check_declared_size(8 * count, size - fh.buffer.tell() + 8192,
+                                    f"the bead count {count} (at least 8 bytes a bead line)",
+                                    where=f"{src}, line {count_line}, frame {index}")
+            except LimitError as err:
+                if errors == "raise":
+                    raise
                 yield FrameFailure(src, index, err)
                 return
             want = _wanted(sel, index)

@@ -189,6 +189,10 @@ def braid_word(word: str | Sequence[int]) -> list[int]:
         if abs(power) * len(gens) + len(out) > _MAX_CROSSINGS:
             raise NotationError(f"braid word: more than {_MAX_CROSSINGS} crossings; expected a "
                                 "shorter word", value=text, where=where)
+        from ..limits import check_at_most
+
+        check_at_most("crossings", abs(power) * len(gens) + len(out),
+                      "the number of crossings of the braid word", where=where)
         if power < 0:  # the inverse: reversed, each generator inverted
             gens = [-g for g in reversed(gens)]
         out += gens * abs(power)

@@ -327,6 +327,11 @@ class _Parser:
             values = [int(d) for d in first.text]
         else:
             values = [int(t) for t, _ in entries]
+        from ..limits import check_at_most
+
+        self._crossings = getattr(self, "_crossings", 0) + sum(abs(v) for v in values)
+        check_at_most("crossings", self._crossings, "the number of crossings of the Conway "
+                      "notation", where=f"position {first.pos + 1}")
         return _Slot.rational(values)
 
 

@@ -1,0 +1,407 @@
+"""Local worker processes with hard per-item limits, poison-item isolation and adaptive tasks.
+
+Each worker is a child process started with the ``spawn`` method.  It
+
+* dies with its parent: on Linux the kernel sends it SIGKILL when the parent
+  ends (``PR_SET_PDEATHSIG``), and on every system a watchdog thread ends it
+  within a second of the parent disappearing, so a ``classify`` killed with
+  ``kill -9`` leaves no worker behind;
+* runs under an address-space cap (``RLIMIT_AS`` = the limit
+  ``worker_memory_mb``), so an item that would exhaust the machine fails
+  inside its own worker instead;
+* reports the start of every item and the rows of every finished item, so the
+  parent knows which item a dying or stuck worker was on, and keeps the rows
+  of the items it finished before.
+
+An item running past ``item_seconds`` (wall clock) has its worker ended.  An
+item whose worker dies or runs over is retried once, alone, in a fresh
+worker; if that fails too, it becomes an error row saying why, and the run
+goes on.  A poison item therefore never blocks a batch.
+
+Tasks are sized adaptively: the first tasks hold one item each, so every
+worker has work at once, and later tasks grow towards about
+:data:`TARGET_TASK_SECONDS` of work at the measured rate, never beyond the
+``chunk`` given by the user.
+"""
+
+from __future__ import annotations
+
+import math
+import os
+import signal
+import sys
+import threading
+import time
+from collections import deque
+from collections.abc import Callable, Iterator
+from dataclasses import dataclass, field
+
+__all__ = ["run_pool", "task_size", "TARGET_TASK_SECONDS", "set_parent_death_signal"]
+
+#: Aimed duration of one task once the rate of items is known (seconds).
+TARGET_TASK_SECONDS = 2.0
+_PR_SET_PDEATHSIG = 1
+
+
+def set_parent_death_signal(sig: int = signal.SIGKILL) -> bool:
+    """Ask the Linux kernel to send ``sig`` to this process when its parent ends.
+
+    Returns False where this is not available (not Linux); the watchdog
+    thread of :func:`_worker_main` covers those systems.
+    """
+    if not sys.platform.startswith("linux"):
+        return False
+    try:
+        import ctypes
+
+        libc = ctypes.CDLL(None, use_errno=True)
+        return libc.prctl(_PR_SET_PDEATHSIG, int(sig), 0, 0, 0) == 0
+    except (OSError, AttributeError):
+        return False
+
+
+def _watch_parent(parent: int) -> None:
+    while True:
+        if os.getppid() != parent:
+            os._exit(1)
+        time.sleep(0.5)
+
+
+def _cap_memory(megabytes: int) -> None:
+    try:
+        import resource
+
+        cap = int(megabytes) << 20
+        soft, hard = resource.getrlimit(resource.RLIMIT_AS)
+        if hard != resource.RLIM_INFINITY:
+            cap = min(cap, hard)
+        resource.setrlimit(resource.RLIMIT_AS, (cap, hard))
+    except (ImportError, ValueError, OSError):  # not on this system: the wall clock still holds
+        pass
+
+
+def _worker_main(conn, parent: int, limits_env: str, memory_mb: int, work) -> None:
+    """The loop of one worker: receive a task, report each item's start and rows."""
+    set_parent_death_signal()
+    signal.signal(signal.SIGINT, signal.SIG_IGN)     # the parent decides when to stop
+    signal.signal(signal.SIGTERM, signal.SIG_DFL)
+    if os.getppid() != parent:                      # the parent died while we started
+        os._exit(1)
+    threading.Thread(target=_watch_parent, args=(parent,), daemon=True).start()
+    from ..limits import ENV_VAR
+
+    if limits_env:
+        os.environ[ENV_VAR] = limits_env
+    _cap_memory(memory_mb)
+    from ..table import open_table
+
+    open_table.cache_clear()
+    while True:
+        try:
+            message = conn.recv()
+        except (EOFError, OSError):
+            return
+        if message is None:
+            return
+        task_id, items, options = message
+        for i, item in enumerate(items):
+            conn.send(("start", task_id, i))
+            try:
+                rows = work(item, options)
+            except MemoryError:
+                rows = None
+            if rows is None:
+                conn.send(("memory", task_id, i))
+                continue
+            conn.send(("rows", task_id, i, rows))
+        conn.send(("done", task_id))
+
+
+def task_size(rate: float | None, workers: int, chunk: int) -> int:
+    """Items for the next task: 1 until a rate is known, then about TARGET_TASK_SECONDS of work.
+
+    Parameters
+    ----------
+    rate : float or None
+        Items per second of one worker, measured so far.
+    workers : int
+    chunk : int
+        The largest task (``--chunk``).
+
+    Examples
+    --------
+    >>> task_size(None, 2, 200), task_size(10.0, 2, 200), task_size(1000.0, 2, 200)
+    (1, 20, 200)
+    """
+    if not rate or rate <= 0:
+        return 1
+    return max(1, min(chunk, int(math.ceil(rate * TARGET_TASK_SECONDS))))
+
+
+def _death(w: "_Worker") -> str:
+    """Why a worker ended, from its exit code."""
+    w.process.join(5)
+    code = w.process.exitcode
+    if code is None:
+        return "the worker process stopped answering"
+    if code < 0:
+        return (f"the worker process was killed by signal {-code}"
+                + (" (possibly out of memory)" if code == -signal.SIGKILL else ""))
+    return f"the worker process exited with code {code}"
+
+
+@dataclass
+class _Task:
+    id: int
+    items: list
+    attempt: int = 1
+    rows: dict = field(default_factory=dict)   # index -> rows
+    current: int | None = None
+    started: float = 0.0
+
+
+@dataclass
+class _Worker:
+    process: object
+    conn: object
+    task: _Task | None = None
+    busy_since: float = 0.0
+
+
+def run_pool(items: Iterator, options, work: Callable, write: Callable[[list], None],
+             fail_rows: Callable[[object, str], list], workers: int, chunk: int,
+             item_seconds: float, memory_mb: int, flush_seconds: float = 2.0,
+             stop: Callable[[], bool] | None = None) -> None:
+    """Classify ``items`` on ``workers`` local processes; write rows as they are ready.
+
+    Parameters
+    ----------
+    items : iterator
+        The items still to do (read lazily).
+    options
+        Passed to ``work`` with each item.
+    work : callable
+        ``work(item, options) -> list of rows``, run in the workers (importable,
+        picklable).
+    write : callable
+        Receives a list of whole items' rows; called from this process only.
+    fail_rows : callable
+        ``fail_rows(item, reason) -> rows`` for an item given up.
+    workers, chunk : int
+        Number of processes; largest task.
+    item_seconds : float
+        Hard wall-clock limit of one item.
+    memory_mb : int
+        Address-space cap of each worker.
+    flush_seconds : float
+        Rows are written at least this often (and whenever ``chunk`` are waiting).
+    stop : callable, optional
+        Polled between events; when it returns True the pool stops.
+
+    Notes
+    -----
+    On return (or on an exception, KeyboardInterrupt included) every worker
+    has been ended.  Rows written are always rows of whole items.
+    """
+    import multiprocessing
+    from multiprocessing.connection import wait
+
+    from ..errors import KnotsiftError
+    from ..limits import ENV_VAR
+
+    ctx = multiprocessing.get_context("spawn")
+    limits_env = os.environ.get(ENV_VAR, "")
+    parent = os.getpid()
+    pool: list[_Worker] = []
+    retry: deque[_Task] = deque()
+    source = iter(items)
+    exhausted = False
+    next_id = 0
+    buffer: list[list] = []   # the rows of whole items, one list per item
+    waiting = [0]              # rows in buffer
+    last_flush = time.monotonic()
+    done_items = 0
+    busy_seconds = 0.0
+    deaths = [0]   # worker deaths with no item started: a broken start, not a poison item
+
+    def start_worker() -> _Worker:
+        mine, theirs = ctx.Pipe()
+        p = ctx.Process(target=_worker_main, args=(theirs, parent, limits_env, memory_mb, work),
+                        daemon=True)
+        p.start()
+        theirs.close()
+        return _Worker(p, mine)
+
+    def flush(force: bool = False) -> None:
+        nonlocal buffer, last_flush
+        if buffer and (force or waiting[0] >= chunk
+                       or time.monotonic() - last_flush >= flush_seconds):
+            while buffer:   # blocks of whole items, at most chunk rows (at least one item)
+                block: list = []
+                while buffer and (not block or len(block) + len(buffer[0]) <= chunk):
+                    block.extend(buffer.pop(0))
+                waiting[0] -= len(block)
+                write(block)
+            last_flush = time.monotonic()
+
+    def keep(rows: list) -> None:
+        buffer.append(rows)
+        waiting[0] += len(rows)
+
+    def next_task() -> _Task | None:
+        nonlocal exhausted, next_id
+        if retry:
+            return retry.popleft()
+        if exhausted:
+            return None
+        rate = done_items / busy_seconds if busy_seconds > 0 and done_items else None
+        size = task_size(rate, workers, chunk)
+        block = []
+        for item in source:
+            block.append(item)
+            if len(block) >= size:
+                break
+        if not block:
+            exhausted = True
+            return None
+        return _Task(0, block)
+
+    def give(w: _Worker) -> None:
+        nonlocal next_id
+        task = next_task()
+        if task is None:
+            return
+        next_id += 1
+        task.id = next_id
+        w.task, w.busy_since = task, time.monotonic()
+        task.current, task.started = None, time.monotonic()
+        w.conn.send((task.id, task.items, options))
+
+    def end(w: _Worker) -> None:
+        try:
+            if w.process.is_alive():
+                w.process.kill()
+            w.process.join(5)
+        finally:
+            w.conn.close()
+
+    def lost(w: _Worker, reason: str) -> None:
+        """The worker died or was ended: keep finished items, retry or give up the current."""
+        task = w.task
+        end(w)
+        pool.remove(w)
+        if task is None:
+            return
+        kept = [task.rows[i] for i in sorted(task.rows)]
+        for rows in kept:
+            keep(rows)
+        rest = [task.items[i] for i in range(len(task.items)) if i not in task.rows]
+        suspect = task.current if task.current is not None and task.current not in task.rows \
+            else None
+        if suspect is not None:
+            item = task.items[suspect]
+            rest.remove(item)
+            if task.attempt >= 2:
+                keep(fail_rows(item, f"{reason}, twice (once alone); the item was "
+                                              "given up"))
+            else:
+                retry.append(_Task(0, [item], attempt=2))
+        else:
+            deaths[0] += 1
+            if deaths[0] > 5 * workers:
+                raise KnotsiftError(f"worker processes keep ending before they start an "
+                                    f"item ({reason}); the rows written so far are kept")
+        if rest:
+            retry.append(_Task(0, rest, attempt=task.attempt if len(rest) == 1 and
+                               suspect is None else 1))
+        flush()
+
+    try:
+        for _ in range(workers):
+            pool.append(start_worker())
+        for w in pool:
+            give(w)
+        while True:
+            if stop is not None and stop():
+                break
+            active = [w for w in pool if w.task is not None]
+            if not active and exhausted and not retry:
+                break
+            if not active:
+                for w in pool:
+                    give(w)
+                if not any(w.task for w in pool):
+                    if exhausted and not retry:
+                        break
+                    continue
+            waitables = {}
+            for w in pool:
+                waitables[w.conn] = w
+                waitables[w.process.sentinel] = w
+            ready = wait(list(waitables), timeout=0.25)
+            now = time.monotonic()
+            for obj in ready:
+                w = waitables[obj]
+                if w not in pool:
+                    continue
+                if obj is w.process.sentinel and not w.conn.poll():
+                    lost(w, _death(w))
+                    pool.append(start_worker())
+                    give(pool[-1])
+                    continue
+                try:
+                    msg = w.conn.recv()
+                except (EOFError, OSError):
+                    lost(w, _death(w))
+                    pool.append(start_worker())
+                    give(pool[-1])
+                    continue
+                task = w.task
+                if task is None or msg[1] != task.id:
+                    continue
+                if msg[0] == "start":
+                    task.current, task.started = msg[2], now
+                elif msg[0] == "rows":
+                    task.rows[msg[2]] = msg[3]
+                    task.current = None
+                elif msg[0] == "memory":
+                    item = task.items[msg[2]]
+                    task.rows[msg[2]] = fail_rows(
+                        item, f"out of memory: the item needs more than the limit "
+                              f"worker_memory_mb = {memory_mb}")
+                    task.current = None
+                elif msg[0] == "done":
+                    for i in sorted(task.rows):
+                        keep(task.rows[i])
+                    done_items += len(task.items)
+                    busy_seconds += now - w.busy_since
+                    w.task = None
+                    give(w)
+            for w in list(pool):
+                task = w.task
+                if task is not None and task.current is not None and \
+                        now - task.started > item_seconds:
+                    lost(w, f"the item ran past the hard limit item_seconds = "
+                            f"{item_seconds:g} s and its worker was ended")
+                    pool.append(start_worker())
+                    give(pool[-1])
+            flush()
+        flush(force=True)
+    except BaseException:
+        try:   # the rows of whole items already back are kept
+            flush(force=True)
+        finally:
+            raise
+    finally:
+        for w in pool:
+            try:
+                w.conn.send(None)
+            except (OSError, ValueError):
+                pass
+        deadline = time.monotonic() + 2
+        for w in pool:
+            w.process.join(max(0.0, deadline - time.monotonic()))
+            if w.process.is_alive():
+                w.process.kill()
+                w.process.join(2)
+            w.conn.close()

@@ -1,0 +1,142 @@
+"""The worker pool: a poison item never blocks a batch, tasks start small, workers die with
+their parent."""
+
+from __future__ import annotations
+
+import os
+import signal
+import subprocess
+import sys
+import textwrap
+import time
+
+import pytest
+
+from knotsift.bulk.sources import Item
+from knotsift.bulk.workers import run_pool, set_parent_death_signal, task_size
+
+from . import poison
+
+
+def _items(n: int, poison_at: int | None = None) -> list[Item]:
+    return [Item(f"batch:{k}:0", "batch", k, 0, "code",
+                 "poison" if k == poison_at else f"code {k}") for k in range(n)]
+
+
+def _run(work, items, **kw):
+    written: list[list[dict]] = []
+    opts = dict(workers=2, chunk=50, item_seconds=2.0, memory_mb=4096)
+    opts.update(kw)
+    run_pool(iter(items), None, work, written.append, poison.fail_rows, **opts)
+    return [r for block in written for r in block]
+
+
+@pytest.mark.parametrize("work, reason", [
+    (poison.hangs, "item_seconds"),
+    (poison.dies, "killed by signal 9"),
+    (poison.exits, "exited with code 3"),
+])
+def test_run_pool_poison_item_is_given_up_and_the_batch_finishes(work, reason):
+    """A batch of 200 with one item that hangs, is killed or exits ends with 200 rows, the
+    poison one an error saying why (after a retry alone), every other one done once."""
+    rows = _run(work, _items(200, poison_at=137), item_seconds=1.0)
+    keys = [r["key"] for r in rows]
+    assert len(rows) == 200 and len(set(keys)) == 200
+    bad = [r for r in rows if r["status"] == "error"]
+    assert [r["key"] for r in bad] == ["batch:137:0"]
+    assert reason in bad[0]["error"] and "twice" in bad[0]["error"]
+
+
+def test_run_pool_memory_cap_fails_the_item_only():
+    """Under the address-space cap an item asking for 8 GB fails alone with the limit named."""
+    rows = _run(poison.eats_memory, _items(30, poison_at=5), memory_mb=1024)
+    assert len(rows) == 30
+    bad = [r for r in rows if r["status"] == "error"]
+    assert [r["key"] for r in bad] == ["batch:5:0"]
+    assert "worker_memory_mb = 1024" in bad[0]["error"]
+
+
+def test_run_pool_writes_whole_items_within_chunk():
+    """No write holds more than ``chunk`` rows, and every item is written exactly once."""
+    written: list[list[dict]] = []
+    run_pool(iter(_items(120)), None, poison.slow, written.append, poison.fail_rows,
+             workers=2, chunk=16, item_seconds=5, memory_mb=4096, flush_seconds=0.05)
+    assert max(len(b) for b in written) <= 16
+    assert sorted(r["key"] for b in written for r in b) == sorted(i.key for i in _items(120))
+
+
+def test_task_size_starts_at_one_and_grows_to_the_chunk():
+    """The first task of each worker holds one item (every worker busy at once); later tasks
+    aim at about two seconds of work and never pass the chunk."""
+    assert task_size(None, 2, 200) == 1
+    assert task_size(0.5, 2, 200) == 1
+    assert task_size(30.0, 2, 200) == 60
+    assert task_size(1e6, 2, 200) == 200
+
+
+@pytest.mark.skipif(not sys.platform.startswith("linux"), reason="prctl is Linux only")
+def test_set_parent_death_signal_on_linux():
+    """On Linux the kernel accepts the request."""
+    code = ("from knotsift.bulk.workers import set_parent_death_signal as s; "
+            "import sys; sys.exit(0 if s() else 1)")
+    assert subprocess.run([sys.executable, "-c", code]).returncode == 0
+    assert callable(set_parent_death_signal)
+
+
+def _children(pid: int) -> set[int]:
+    """Every descendant of ``pid`` still alive (from /proc)."""
+    kids: dict[int, list[int]] = {}
+    for entry in os.listdir("/proc"):
+        if not entry.isdigit():
+            continue
+        try:
+            with open(f"/proc/{entry}/stat") as fh:
+                fields = fh.read().rsplit(")", 1)[1].split()
+        except OSError:
+            continue
+        if fields[0] != "Z":
+            kids.setdefault(int(fields[1]), []).append(int(entry))
+    found, todo = set(), [pid]
+    while todo:
+        for c in kids.get(todo.pop(), []):
+            found.add(c)
+            todo.append(c)
+    return found
+
+
+@pytest.mark.skipif(not os.path.isdir("/proc"), reason="needs /proc")
+@pytest.mark.parametrize("sig", [signal.SIGKILL, signal.SIGTERM])
+def test_classify_killed_parent_leaves_no_worker(tmp_path, sig):
+    """Killing the classify process alone (not its group) with SIGKILL or SIGTERM leaves no
+    worker process behind; after SIGTERM it exits 143 and what it wrote can be resumed."""
+    codes = tmp_path / "codes.txt"
+    codes.write_text("".join(f"s1^{21 + 2 * k}\n" for k in range(40)))
+    out = tmp_path / "out.sqlite"
+    proc = subprocess.Popen([sys.executable, "-m", "knotsift", "classify", str(codes), "-o",
+                             str(out), "--workers", "2", "-q"],
+                            stdout=subprocess.PIPE, stderr=subprocess.PIPE,
+                            start_new_session=True)
+    deadline = time.monotonic() + 60
+    while len(_children(proc.pid)) < 2 and time.monotonic() < deadline:
+        time.sleep(0.1)
+    workers = _children(proc.pid)
+    assert len(workers) >= 2, "the workers never started"
+    time.sleep(1.0)
+    os.kill(proc.pid, sig)
+    code = proc.wait(30)
+    deadline = time.monotonic() + 10
+    alive = workers
+    while alive and time.monotonic() < deadline:
+        alive = {p for p in alive if os.path.exists(f"/proc/{p}") and
+                 open(f"/proc/{p}/stat").read().rsplit(")", 1)[1].split()[0] != "Z"}
+        time.sleep(0.1)
+    assert not alive
+    if sig == signal.SIGTERM:
+        assert code == 143, proc.stderr.read().decode()
+        again = subprocess.run([sys.executable, "-m", "knotsift", "classify", str(codes), "-o",
+                                str(out), "--workers", "2", "-q", "--json"],
+                               capture_output=True, text=True, timeout=300)
+        assert again.returncode == 0, again.stderr
+        assert '"total": 40' in again.stdout
+    else:
+        assert code == -signal.SIGKILL
