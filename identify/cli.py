@@ -60,7 +60,7 @@ def _cmd_identify(args) -> int:
     from .curves.commands import identify_coordinate_files
     from .errors import KnotsiftError
     from .identification import identify
-    from .result import IdentifyResult
+    from .result import JSON_SCHEMA_VERSION, IdentifyResult
     from .table import open_table
 
     routed = identify_coordinate_files(args)  # FILE.xyz / .pdb / .npy: the 3D pipeline
@@ -90,7 +90,7 @@ def _cmd_identify(args) -> int:
                for s in ("identified", "ambiguous", "not in table", "error")}
     summary["total"] = len(results)
     if args.json:
-        json.dump({"schema_version": 1, "results": [r.to_dict() for r in results],
+        json.dump({"schema_version": JSON_SCHEMA_VERSION, "results": [r.to_dict() for r in results],
                    "summary": summary}, sys.stdout, indent=2)
         print()
     elif len(results) > 1:

@@ -23,7 +23,7 @@ from .closure import CLOSURES, DEFAULT_CLOSURES, closure_spectrum
 from .contact import check_no_contact
 from .frame import Chain, Frame, FrameFailure, as_chain, prepare_chains
 from .kmt import kmt_reduce
-from .knot_type import polygon_type
+from .knot_type import cached_invariants, polygon_type
 from .projection import project
 
 __all__ = [
@@ -39,7 +39,8 @@ __all__ = [
 
 #: Statuses of a curve result: those of IdentifyResult, and "undetermined"
 #: when no knot type holds a strict majority of the closures.
-CURVE_STATUSES = ("identified", "ambiguous", "not in table", "undetermined", "error")
+CURVE_STATUSES = ("identified", "ambiguous", "not in table", "undetermined", "too complex",
+                  "error")
 CURVE_NOTATION = "3D coordinates"
 
 UNKNOT_NOTE = ("the unknot here means the curve reduced to a diagram whose invariants are "
@@ -179,7 +180,7 @@ class FrameResult:
 
 
 def _is_trivial(fp) -> bool:
-    return fp.components == 1 and fp.jones == 1
+    return fp.components == 1 and fp.jones is not None and fp.jones == 1
 
 
 def _type_label(fp, table) -> str:
@@ -189,9 +190,25 @@ def _type_label(fp, table) -> str:
     if _is_trivial(fp) and not cands:
         return "0_1"
     if not cands:
-        return f"not in table (V = {fp.jones})"
-    shown = [c.label if c.chirality in ("same", "mirror") else c.name for c in cands]
-    return " or ".join(shown)
+        from ..type_key import type_key
+
+        key = type_key(fp.texts())
+        return f"not in table ({key})" if key else f"not in table (V = {fp.jones})"
+    return " or ".join(c.shown for c in cands)
+
+
+def _fingerprint_of(result: IdentifyResult):
+    """The fingerprint behind a result (for the knotted-core search), None if incomplete."""
+    from ..invariants.fingerprint import Fingerprint
+    from ..laurent import Laurent
+
+    inv = result.invariants
+    if not inv.get("determinant") or not inv.get("signature"):
+        return None
+    return Fingerprint(int(inv["components"]),
+                       Laurent.parse(inv["jones"]) if inv.get("jones") else None,
+                       Laurent.parse(inv["alexander"]) if inv.get("alexander") else None,
+                       int(inv["determinant"]), int(inv["signature"]))
 
 
 def _check_args(closure: str, n_closures: int) -> None:
@@ -214,9 +231,11 @@ def _identify_prepared(x: np.ndarray, kept: np.ndarray, n_input: int, chain_id: 
     spectrum = None
     rng = np.random.default_rng([seed, 0])
     if closed:
-        typed = polygon_type([(x, True)], rng, where=where)
-        base = identify_diagram(typed.diagram, table, source=label, notation=CURVE_NOTATION)
-        target = typed.fingerprint
+        # one pass: simplified once here, invariants computed once in identify_diagram
+        typed = polygon_type([(x, True)], rng, where=where, with_fingerprint=False)
+        base = identify_diagram(typed.diagram, table, source=label, notation=CURVE_NOTATION,
+                                simplified=typed.simplified)
+        target = _fingerprint_of(base)
         geometry.update(vertices_reduced=typed.vertices_reduced,
                         crossings_projected=typed.crossings,
                         crossings_simplified=typed.simplified.number_of_crossings(),
@@ -235,7 +254,8 @@ def _identify_prepared(x: np.ndarray, kept: np.ndarray, n_input: int, chain_id: 
                             closures_reused=sp.reused)
         if sp.dominant is not None:
             base = identify_diagram(sp.dominant.diagram, table, source=label,
-                                    notation=CURVE_NOTATION)
+                                    notation=CURVE_NOTATION, simplified=sp.dominant.diagram,
+                                    staged=cached_invariants(sp.dominant.diagram))
             target = sp.dominant.fingerprint
             geometry["crossings_simplified"] = sp.dominant.diagram.number_of_crossings()
             if closure == "stochastic":
@@ -261,6 +281,9 @@ def _identify_prepared(x: np.ndarray, kept: np.ndarray, n_input: int, chain_id: 
             result.notes.append("no knotted core: the knot type is undetermined")
         elif _is_trivial(target):
             result.notes.append("no knotted core: the chain is unknotted")
+        elif target.jones is None:
+            result.notes.append("no knotted core searched: the Jones polynomial of the chain "
+                                "was not computed, and the search compares whole fingerprints")
         else:
             from .localisation import knotted_core
 
@@ -283,22 +306,34 @@ def _chain_where(source: str, frame: int | None, chain_id: str) -> str:
 
 
 def _identify_chain(chain: Chain, source: str, frame: int | None, closure: str,
-                    n_closures: int, seed: int, localise: bool, table) -> CurveResult:
+                    n_closures: int, seed: int, localise: bool, table,
+                    budget=None) -> CurveResult:
+    from ..budget import TooComplex, item_budget
+
     label = _chain_where(source, frame, chain.id)
     where = ", ".join(p for p in (source, f"frame {frame}" if frame is not None else "") if p)
-    prep = prepare_chains([chain], where=where)
-    x = prep.chains[0].coords
-    check_no_contact([(x, chain.closed)], [chain.id], prep.kept, where=where)
-    result = _identify_prepared(x, prep.kept[0], len(chain.coords), chain.id, chain.closed,
-                                closure, n_closures, seed, localise, table, label, where,
-                                prep.warnings)
+    with item_budget(budget):  # one chain is one item: its wall time starts here
+        prep = prepare_chains([chain], where=where)
+        x = prep.chains[0].coords
+        check_no_contact([(x, chain.closed)], [chain.id], prep.kept, where=where)
+        try:
+            result = _identify_prepared(x, prep.kept[0], len(chain.coords), chain.id,
+                                        chain.closed, closure, n_closures, seed, localise,
+                                        table, label, where, prep.warnings)
+        except TooComplex as exc:  # past the deadline outside identify_diagram (closures)
+            result = CurveResult(status="too complex", error=exc.message, source=label,
+                                 notation=CURVE_NOTATION, chain=chain.id, closed=chain.closed,
+                                 beads=len(chain.coords),
+                                 closure=None if chain.closed else closure,
+                                 warnings=list(prep.warnings), primality="unknown")
+            result.notes.append(f"{exc.message}; no invariant of the chain was kept")
     result.frame = frame
     return result
 
 
 def identify_curve(coords, closed: bool = True, closure: str = "stochastic",
                    n_closures: int = DEFAULT_CLOSURES, seed: int = 0, localise: bool = False,
-                   table=None, source: str = "") -> CurveResult:
+                   table=None, source: str = "", budget=None) -> CurveResult:
     """Identify the knot formed by one chain of 3D coordinates.
 
     Parameters
@@ -321,10 +356,14 @@ def identify_curve(coords, closed: bool = True, closure: str = "stochastic",
         Default: the shipped table.
     source : str
         A label for reports.
+    budget : knotsift.budget.Budget, optional
+        Cost limits of this chain (Jones estimate, wall time); default the
+        enclosing :func:`knotsift.budget.item_budget` or the defaults.
 
     Returns
     -------
     CurveResult
+        Status ``too complex`` when the chain's wall time ran out.
 
     Raises
     ------
@@ -367,7 +406,7 @@ def identify_curve(coords, closed: bool = True, closure: str = "stochastic",
     else:
         chain = as_chain(coords, closed)
     return _identify_chain(chain, source, frame_index, closure, n_closures, seed, localise,
-                           table)
+                           table, budget)
 
 
 def _linking(frame: Frame, rings: list[Chain], seed: int) -> tuple[list[dict], list[str]]:
@@ -393,7 +432,7 @@ def _linking(frame: Frame, rings: list[Chain], seed: int) -> tuple[list[dict], l
 
 def identify_frame(frame: Frame, closure: str = "stochastic",
                    n_closures: int = DEFAULT_CLOSURES, seed: int = 0, localise: bool = False,
-                   table=None, linking: bool = True) -> FrameResult:
+                   table=None, linking: bool = True, budget=None) -> FrameResult:
     """Identify every chain of a frame and the linking numbers of its rings.
 
     Each chain is checked and identified on its own (another chain does not
@@ -409,6 +448,8 @@ def identify_frame(frame: Frame, closure: str = "stochastic",
         As for :func:`identify_curve`.
     linking : bool
         Compute the linking numbers of pairs of rings.
+    budget : knotsift.budget.Budget, optional
+        Cost limits of each chain (see :func:`identify_curve`).
 
     Returns
     -------
@@ -423,7 +464,7 @@ def identify_frame(frame: Frame, closure: str = "stochastic",
     for chain in frame.chains:
         try:
             r = _identify_chain(chain, frame.source, frame.index, closure, n_closures, seed,
-                                localise, table)
+                                localise, table, budget)
             good.append(chain)
         except CurveError as exc:
             r = CurveResult(status="error", error=str(exc),

@@ -13,6 +13,7 @@ from __future__ import annotations
 import random
 from typing import Sequence
 
+from ..budget import bracket_progress, packed_state_bytes
 from ..diagram import Diagram
 from ..laurent import Laurent
 
@@ -178,6 +179,7 @@ def kauffman_bracket(diagram: Diagram, order: Sequence[int] | None = None) -> La
     one = 1 << (bits * offset)
     shift2 = 2 * bits
 
+    state_bytes = packed_state_bytes(n)
     bnd: list[int] = []
     states: dict[tuple, int] = {(): one}
     processed: set[int] = set()
@@ -264,6 +266,7 @@ def kauffman_bracket(diagram: Diagram, order: Sequence[int] | None = None) -> La
         processed.add(ci)
         if not states:
             return Laurent.constant(0)
+        bracket_progress(len(states), state_bytes)  # stops past the memory or time budget
     value = states.get((), 0)
     digits = _decode(value, bits)
     coeffs = {k - offset: c for k, c in enumerate(digits) if c}

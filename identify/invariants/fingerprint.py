@@ -31,7 +31,9 @@ class Fingerprint:
     Attributes
     ----------
     components : int
-    jones : Laurent
+    jones : Laurent or None
+        None when the Jones polynomial was not computed (skipped for cost,
+        see :mod:`knotsift.budget`); such a fingerprint matches no table key.
     alexander : Laurent or None
         None for links (the single-variable Alexander polynomial is computed
         for knots only).
@@ -41,14 +43,15 @@ class Fingerprint:
     """
 
     components: int
-    jones: Laurent
+    jones: Laurent | None
     alexander: Laurent | None
     determinant: int
     signature: int
 
     def mirror(self) -> "Fingerprint":
         """The fingerprint of the mirror image."""
-        return Fingerprint(self.components, self.jones.mirror(), self.alexander,
+        jones = None if self.jones is None else self.jones.mirror()
+        return Fingerprint(self.components, jones, self.alexander,
                            self.determinant, -self.signature)
 
     def is_mirror_blind(self) -> bool:
@@ -59,7 +62,7 @@ class Fingerprint:
         """Each invariant in canonical text form."""
         return {
             "components": str(self.components),
-            "jones": str(self.jones),
+            "jones": "" if self.jones is None else str(self.jones),
             "alexander": "" if self.alexander is None else str(self.alexander),
             "determinant": str(self.determinant),
             "signature": str(self.signature),
@@ -79,7 +82,8 @@ class Fingerprint:
         """The fingerprint of a connected sum (knots): products and a sum of signatures."""
         if self.components != 1 or other.components != 1:
             raise ValueError("connected sums of fingerprints are defined here for knots only")
-        return Fingerprint(1, self.jones * other.jones, self.alexander * other.alexander,
+        jones = None if self.jones is None or other.jones is None else self.jones * other.jones
+        return Fingerprint(1, jones, self.alexander * other.alexander,
                            self.determinant * other.determinant,
                            self.signature + other.signature)
 
