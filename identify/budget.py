@@ -53,6 +53,9 @@ __all__ = [
     "Staged",
     "staged_invariants",
     "jones_can_name",
+    "budget_scope",
+    "add_budget_arguments",
+    "budget_from_args",
 ]
 
 JONES_MODES = ("auto", "always", "never")
@@ -422,3 +425,58 @@ def staged_invariants(simple, table=None, budget: Budget | None = None,
                    "answer stands on the Alexander polynomial, the determinant and the "
                    "signature")
     return st
+
+
+@contextmanager
+def budget_scope(budget: Budget | None):
+    """Make ``budget`` the default of every item started inside, without a clock of its own.
+
+    For a run of many items (a file of frames): each item still gets its own
+    wall time from :func:`item_budget`.
+    """
+    if budget is None:
+        yield None
+        return
+    token = _GUARD.set(_Guard(None, budget))
+    try:
+        yield budget
+    finally:
+        _GUARD.reset(token)
+
+
+def _non_negative(text: str) -> float:
+    import argparse
+
+    try:
+        v = float(text)
+    except ValueError:
+        raise argparse.ArgumentTypeError(f"expected a number, got {text!r}") from None
+    if not v >= 0 or v == float("inf"):
+        raise argparse.ArgumentTypeError(f"expected a finite number >= 0, got {text}")
+    return v
+
+
+def add_budget_arguments(parser) -> None:
+    """The budget options shared by ``identify``, ``curve`` and ``classify``."""
+    d = DEFAULT_BUDGET
+    g = parser.add_argument_group("cost budget (README: Budgets)")
+    g.add_argument("--jones", choices=JONES_MODES, default=d.jones,
+                   help="auto (default): the Jones polynomial where it can change the answer "
+                        "or is cheap; always: whenever within budget; never")
+    g.add_argument("--jones-memory", type=_non_negative, default=d.jones_memory / 1e9,
+                   metavar="GB", help=f"memory the Jones contraction may use (default "
+                                      f"{d.jones_memory / 1e9:.2f} GB)")
+    g.add_argument("--jones-seconds", type=_non_negative, default=d.jones_seconds,
+                   metavar="S", help=f"skip Jones when estimated above this (default "
+                                     f"{d.jones_seconds:g} s)")
+    g.add_argument("--time-budget", type=_non_negative, default=d.wall_seconds, metavar="S",
+                   help=f"wall time per item, then status 'too complex' (default "
+                        f"{d.wall_seconds:g} s; 0 for none)")
+
+
+def budget_from_args(args) -> Budget:
+    """The Budget of parsed :func:`add_budget_arguments` options."""
+    wall = getattr(args, "time_budget", DEFAULT_BUDGET.wall_seconds)
+    return Budget(jones_memory=int(getattr(args, "jones_memory", 1.0) * 1e9),
+                  jones_seconds=getattr(args, "jones_seconds", DEFAULT_BUDGET.jones_seconds),
+                  wall_seconds=wall or None, jones=getattr(args, "jones", "auto"))

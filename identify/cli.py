@@ -72,11 +72,15 @@ def _cmd_identify(args) -> int:
         print("knotsift identify: no input (give a code, --file, --demo, or pipe codes in)",
               file=sys.stderr)
         return 2
+    from .budget import budget_from_args, item_budget
+
+    budget = budget_from_args(args)
     results = []
     for label, text in items:
         try:
-            r = identify(text, args.notation, table=table, neighbours=args.neighbours,
-                         label=label)
+            with item_budget(budget):
+                r = identify(text, args.notation, table=table, neighbours=args.neighbours,
+                             label=label)
         except KnotsiftError as exc:
             if args.debug:
                 raise
@@ -87,7 +91,7 @@ def _cmd_identify(args) -> int:
             if len(items) > 1:
                 print()
     summary = {s: sum(1 for r in results if r.status == s)
-               for s in ("identified", "ambiguous", "not in table", "error")}
+               for s in ("identified", "ambiguous", "not in table", "too complex", "error")}
     summary["total"] = len(results)
     if args.json:
         json.dump({"schema_version": JSON_SCHEMA_VERSION, "results": [r.to_dict() for r in results],
@@ -178,6 +182,9 @@ def _parser() -> argparse.ArgumentParser:
                    help="also list table knots one crossing change away")
     q.add_argument("--json", action="store_true", help="machine-readable output (see README)")
     q.add_argument("--table", help="use this reference table file instead of the shipped one")
+    from .budget import add_budget_arguments
+
+    add_budget_arguments(q)
     q.set_defaults(func=_cmd_identify)
 
     s = sub.add_parser("show", help="print a table entry, found by a name typed loosely")

@@ -25,12 +25,20 @@ from __future__ import annotations
 import hashlib
 from typing import Mapping
 
-__all__ = ["KEY_INVARIANTS", "KEY_VERSION", "type_key"]
+__all__ = ["KEY_INVARIANTS", "KEY_VERSION", "MIRROR_RULES", "type_key", "unoriented_type_key"]
 
 #: The invariants the key is made of, in order; each entry names a key of
 #: ``IdentifyResult.invariants`` (canonical text).  Extend here (and bump
 #: KEY_VERSION): every caller uses this list.
 KEY_INVARIANTS: list[str] = ["alexander", "determinant", "signature"]
+
+#: How each key invariant's text changes under mirror image (None: unchanged).
+#: An invariant added to KEY_INVARIANTS gets its rule here.
+MIRROR_RULES = {
+    "alexander": None,
+    "determinant": None,
+    "signature": lambda text: str(-int(text)),
+}
 
 #: Changes whenever KEY_INVARIANTS or the form changes, so keys of different
 #: versions never compare equal by accident.
@@ -70,3 +78,23 @@ def type_key(invariants: Mapping[str, str]) -> str | None:
     digest = hashlib.sha256(";".join(texts).encode()).hexdigest()[:10]
     return (f"K{KEY_VERSION}.d{invariants['determinant']}.s{invariants['signature']}."
             f"{digest}")
+
+
+def unoriented_type_key(invariants: Mapping[str, str]) -> str | None:
+    """The key shared by a knot and its mirror image: the smaller of the two keys.
+
+    Examples
+    --------
+    >>> right = {"alexander": "t^-1 - 1 + t", "determinant": "3", "signature": "-2"}
+    >>> unoriented_type_key(right) == unoriented_type_key(dict(right, signature="2"))
+    True
+    """
+    key = type_key(invariants)
+    if key is None:
+        return None
+    mirrored = dict(invariants)
+    for name in KEY_INVARIANTS:
+        rule = MIRROR_RULES[name]
+        if rule is not None:
+            mirrored[name] = rule(str(invariants[name]))
+    return min(key, type_key(mirrored))

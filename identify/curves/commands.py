@@ -40,12 +40,16 @@ def _cmd_curve(args) -> int:
         return 2
     table = open_table(args.table)
     frames = parse_frames(args.frames) if args.frames else None
+    from ..budget import budget_from_args, budget_scope
+
     status = 0
     for path in files:
-        code = report_file(path, format=args.format, closed=args.closed, frames=frames,
-                           closure=args.closure, n_closures=args.closures, seed=args.seed,
-                           localise=args.core, table=table, as_json=args.json,
-                           progress=None if not args.quiet else False)
+        with budget_scope(budget_from_args(args)):
+            code = report_file(path, format=args.format, closed=args.closed, frames=frames,
+                               closure=args.closure, n_closures=args.closures,
+                               seed=args.seed,
+                               localise=args.core, table=table, as_json=args.json,
+                               progress=None if not args.quiet else False)
         status = max(status, code)
     return status
 
@@ -82,6 +86,9 @@ def register(sub) -> None:
                    help="machine-readable output (see README, 'Knots in 3D coordinates')")
     c.add_argument("--quiet", action="store_true", help="no progress line")
     c.add_argument("--table", help="use this reference table file instead of the shipped one")
+    from ..budget import add_budget_arguments
+
+    add_budget_arguments(c)
     c.set_defaults(func=_cmd_curve)
 
 
@@ -100,9 +107,12 @@ def identify_coordinate_files(args) -> int | None:
     from ..table import open_table
     from .report import report_file
 
+    from ..budget import budget_from_args, budget_scope
+
     table = open_table(getattr(args, "table", None))
     status = 0
     for path in codes:
-        status = max(status, report_file(path, table=table,
-                                         as_json=getattr(args, "json", False)))
+        with budget_scope(budget_from_args(args)):
+            status = max(status, report_file(path, table=table,
+                                             as_json=getattr(args, "json", False)))
     return status
