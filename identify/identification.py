@@ -188,7 +188,7 @@ def _grouping_note(fp: Fingerprint, table: ReferenceTable, named: bool) -> str |
                 if eq not in identities:
                     identities.append(eq)
     if identities:
-        text += " (" + "; ".join(identities) + ")"
+        text += " (" + "; ".join(identities[:6]) + ("; ..." if len(identities) > 6 else "") + ")"
     return text
 
 
@@ -221,8 +221,12 @@ def _bounds(fp: Fingerprint, simple: Diagram, table: ReferenceTable,
     best, why = max(reasons, key=lambda r: r[0]) if reasons else (0, "")
     if best == 0:
         return [None, upper], None
-    note = (f"crossing number at least {best} ({why}) and at most {upper} (the simplified "
-            "diagram)")
+    if best == upper:
+        note = (f"crossing number exactly {best}: at least {best} ({why}), and the simplified "
+                "diagram has that many crossings")
+    else:
+        note = (f"crossing number at least {best} ({why}) and at most {upper} (the "
+                "simplified diagram)")
     if candidates and all(c.kind == "composite" for c in candidates):
         sums = sorted({c.crossing_number for c in candidates})
         note += ("; if it is the connected sum named, at most " +
