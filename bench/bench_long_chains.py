@@ -51,6 +51,7 @@ def worker(n: int, frames: int, seed: int, seconds_cap: float | None) -> None:
     from random_polygons import random_polygon
 
     from knotsift.curves import identify_curve
+    from knotsift.errors import KnotsiftError
     from knotsift.table import open_table
 
     table = open_table()
@@ -81,6 +82,9 @@ def worker(n: int, frames: int, seed: int, seconds_cap: float | None) -> None:
         except MemoryError:
             signal.alarm(0)
             row.update(status="out of memory", error="over the worker's memory cap")
+        except KnotsiftError as exc:  # e.g. a near approach taken for a self-contact
+            signal.alarm(0)
+            row.update(status="error", error=str(exc)[:200])
         row.update(wall=time.perf_counter() - wall, cpu=time.process_time() - cpu,
                    rss_gb=resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1e6)
         print(json.dumps(row), flush=True)
