@@ -174,8 +174,8 @@ def _duration(s: float) -> str:
 def packed_state_bytes(crossings: int) -> int:
     """Bytes of one packed bracket polynomial (the layout of knotsift.invariants.bracket)."""
     bits = 2 * crossings + 8
-    offset = 3 * crossings + 6
-    return bits * 2 * offset // 8 + 32
+    digits = 2 * crossings + 4  # offset n + 2 and up to n + 2 more digits (powers of A^2)
+    return bits * digits // 8 + 32
 
 
 def _boundary_states(width: int) -> int:

@@ -21,11 +21,16 @@ def _fresh(diagram: Diagram, k: int) -> list[int]:
 
 
 def _heads_for(diagram: Diagram, keep: set[int]) -> dict[int, int]:
-    """One unchanged edge per component with the crossing it runs into."""
+    """One unchanged edge per component with the crossing it runs into.
+
+    A kink's own edge runs from a crossing into the same crossing, so naming
+    that crossing would not fix a direction: such edges are passed over.
+    """
     heads = {}
+    kinks = {e for x in diagram.crossings for e in x if x.count(e) == 2}
     for comp in diagram.components():
         for label in comp:
-            if label in keep:
+            if label in keep or label in kinks:
                 continue
             for i, x in enumerate(diagram.crossings):
                 for p, e in enumerate(x):

@@ -3,53 +3,87 @@
 Crossings are added one at a time in an order that keeps the open boundary
 small; the partial state sum is kept as a map from the boundary matching (how
 the open edges are joined through the processed part) to a polynomial in A.
-Polynomials are packed into single Python integers (Kronecker substitution
-A = 2^B with balanced digits), so adding, shifting and multiplying by the loop
-value d = -A^2 - A^-2 are a few big-integer operations.
+A matching is a short ``bytes`` key (entry i is the position joined with
+position i), and what one crossing does to a matching depends only on where
+the edges it closes lead, so that is worked out once per step and pattern.
+
+Every state value after k crossings is A^-k Q(A^2) (each crossing brings A or
+A^-1, each loop d = -A^2 - A^-2: the parity of the exponent is fixed), and Q is
+packed into one Python integer (Kronecker substitution A^2 = 2^bits with
+balanced digits).  Adding, the A-smoothing's factor and a loop are then a few
+big-integer operations on numbers a third of the size that A itself would need.
+
+The crossing order is greedy (close the most open edges next), best of
+several starts; the search keeps candidates in heaps and abandons a start once
+it costs more than the best so far.
 """
 
 from __future__ import annotations
 
 import random
+from heapq import heappop, heappush
+from operator import itemgetter
 from typing import Sequence
 
 from ..budget import bracket_progress, packed_state_bytes
 from ..diagram import Diagram
+from ..errors import InvariantError
 from ..laurent import Laurent
 
 __all__ = ["kauffman_bracket", "contraction_order", "contraction_width"]
 
 
-def _score_order(crossings: Sequence[tuple[int, int, int, int]], start: int,
-                 rng: random.Random | None) -> tuple[list[int], int, int]:
-    """Greedy order from ``start``: always add the crossing that closes the most open edges."""
-    n = len(crossings)
-    where: dict[int, list[int]] = {}
+def _order_graph(crossings: Sequence[tuple[int, int, int, int]]
+                 ) -> tuple[list[tuple[int, ...]], list[list[int]]]:
+    """Each crossing's edges as indices 0..m-1 (a kink's own edge left out), and their crossings."""
+    index: dict[int, int] = {}
+    ends: list[tuple[int, ...]] = []
+    for x in crossings:
+        ends.append(tuple(index.setdefault(e, len(index)) for e in dict.fromkeys(x)
+                          if x.count(e) == 1))
+    where: list[list[int]] = [[] for _ in index]
     for i, x in enumerate(crossings):
         for e in x:
-            where.setdefault(e, []).append(i)
+            if x.count(e) == 1:
+                where[index[e]].append(i)
+    return ends, where
+
+
+def _score_order(ends: list[tuple[int, ...]], where: list[list[int]], start: int,
+                 bound: int | None = None) -> tuple[list[int], int, int] | None:
+    """Greedy order from ``start``: always add the crossing that closes the most open edges.
+
+    Ties go to the smallest crossing index.  Returns None as soon as the cost
+    exceeds ``bound`` (the cost only grows, so such an order cannot win).
+    Candidates wait in one heap per count of open edges (1 to 4), with stale
+    entries dropped when popped, so a step costs O(log n) instead of a scan of
+    every candidate.
+    """
+    n = len(ends)
     open_count = [0] * n  # number of entries of crossing i whose edge is open
     done = [False] * n
-    is_open: dict[int, bool] = {}
+    is_open = [False] * len(where)
+    buckets: list[list[int]] = [[] for _ in range(5)]
     order = []
-    width = 0
-    widest = 0
-    total = 0
-    candidates = {start}
+    width = widest = total = 0
+    pending = start
     for _ in range(n):
-        if candidates:
-            best = max(candidates, key=lambda i: (2 * open_count[i] - 4, -i))
-        else:
-            best = next(i for i in range(n) if not done[i])
-        candidates.discard(best)
+        best = pending
+        pending = -1
+        if best < 0:
+            for count in (4, 3, 2, 1):
+                heap = buckets[count]
+                while heap and (done[heap[0]] or open_count[heap[0]] != count):
+                    heappop(heap)
+                if heap:
+                    best = heappop(heap)
+                    break
+            else:
+                best = done.index(False)
         done[best] = True
         order.append(best)
-        x = crossings[best]
-        for e in set(x):
-            occ = x.count(e)
-            if occ == 2:
-                continue
-            if is_open.get(e):
+        for e in ends[best]:
+            if is_open[e]:
                 is_open[e] = False
                 width -= 1
             else:
@@ -57,10 +91,13 @@ def _score_order(crossings: Sequence[tuple[int, int, int, int]], start: int,
                 width += 1
                 for j in where[e]:
                     if not done[j]:
-                        open_count[j] += 1
-                        candidates.add(j)
-        widest = max(widest, width)
-        total += 1 << min(width, 60)
+                        c = open_count[j] = open_count[j] + 1
+                        heappush(buckets[c], j)
+        if width > widest:
+            widest = width
+        total += 1 << (width if width < 60 else 60)
+        if bound is not None and total > bound:
+            return None
     return order, widest, total
 
 
@@ -72,9 +109,13 @@ def contraction_order(diagram: Diagram, tries: int = 40, seed: int = 0) -> list[
         return []
     rng = random.Random(seed)
     starts = list(range(n)) if n <= tries else rng.sample(range(n), tries)
+    ends, where = _order_graph(xs)
     best = None
     for s in starts:
-        order, widest, total = _score_order(xs, s, rng)
+        found = _score_order(ends, where, s, None if best is None else best[0][0])
+        if found is None:
+            continue
+        order, widest, total = found
         key = (total, widest)
         if best is None or key < best[0]:
             best = (key, order)
@@ -134,6 +175,109 @@ def _divide_by_loop(coeffs: dict[int, int]) -> dict[int, int]:
     return q
 
 
+def _step_plan(x: tuple[int, int, int, int], bnd: list[int]) -> tuple:
+    """What adding crossing ``x`` to the open boundary ``bnd`` does, independent of the state.
+
+    Returns the new boundary, the slices of the old key kept (positions of the
+    edges that stay open), the positions of the edges ``x`` closes, and, per
+    crossing corner, its kind: ``("open", new index)``, ``("self", twin corner)``
+    or ``("close", old position)``.
+    """
+    index = {e: i for i, e in enumerate(bnd)}
+    kinds: list[tuple[str, int]] = []
+    closing: list[int] = []
+    new_open: list[int] = []
+    for p, e in enumerate(x):
+        if e in index:
+            kinds.append(("close", index[e]))
+            closing.append(index[e])
+        elif x.count(e) == 2:
+            twin = next(q for q in range(4) if q != p and x[q] == e)
+            kinds.append(("self", twin))
+        else:
+            kinds.append(("open", len(new_open)))
+            new_open.append(e)
+    closed = set(closing)
+    kept = [i for i in range(len(bnd)) if i not in closed]
+    new_bnd = [bnd[i] for i in kept]
+    n_kept = len(kept)
+    kinds = [(k, v + n_kept) if k == "open" else (k, v) for k, v in kinds]
+    cuts = sorted(closed)
+    slices, lo = [], 0
+    for c in cuts:
+        if c > lo:
+            slices.append((lo, c))
+        lo = c + 1
+    if lo < len(bnd):
+        slices.append((lo, len(bnd)))
+    renumber = bytearray(256)
+    for new, old in enumerate(kept):
+        renumber[old] = new
+    return (new_bnd + new_open, slices, closing, kinds, bytes(renumber), len(new_open))
+
+
+def _smoothing_recipe(kinds: list, closing_partners: dict[int, int], smooth: tuple,
+                      renumber: bytes) -> tuple[int, list[tuple[int, int]]]:
+    """Loops closed and new pairings made by one smoothing, given where closing edges lead.
+
+    ``closing_partners`` maps each closed boundary position to its partner in
+    the old key.  A pairing joins two new-key positions: a new open edge, or
+    the surviving partner of a closed edge.
+    """
+    corner_of = {v: p for p, (k, v) in enumerate(kinds) if k == "close"}
+    visited = [False] * 4
+    pairs: list[tuple[int, int]] = []
+
+    def leave(p: int) -> int | None:
+        """Walk out of corner ``p`` along the boundary; the new position reached, or None."""
+        k, v = kinds[p]
+        if k == "open":
+            return v
+        if k == "self":
+            return -1 - v               # re-enter at the twin corner
+        partner = closing_partners[v]
+        if partner in closing_partners:
+            return -1 - corner_of[partner]
+        return renumber[partner]
+
+    def walk(p: int) -> int | None:
+        """From corner ``p`` through the crossing and on, to an end (new position) or None."""
+        while True:
+            visited[p] = True
+            q = smooth[p]
+            visited[q] = True
+            out = leave(q)
+            if out >= 0:
+                return out
+            p = -1 - out
+            if visited[p]:
+                return None
+
+    ends = {}
+    for p in range(4):
+        if visited[p]:
+            continue
+        first = leave(p)
+        if first is None or first < 0:
+            continue
+        ends[p] = (first, walk(p))
+    for a, b in ends.values():
+        pairs.append((a, b))
+    loops = 0
+    for p in range(4):
+        if not visited[p]:
+            loops += 1
+            q = p
+            while True:
+                visited[q] = True
+                r = smooth[q]
+                visited[r] = True
+                q = -1 - leave(r)
+                if visited[q]:
+                    break
+    return loops, pairs
+
+
 def kauffman_bracket(diagram: Diagram, order: Sequence[int] | None = None) -> Laurent:
     """The Kauffman bracket <D> in the variable A, normalised so that <O> = 1.
 
@@ -173,103 +317,61 @@ def kauffman_bracket(diagram: Diagram, order: Sequence[int] | None = None) -> La
             result = result * d
         return result
     order = contraction_order(diagram) if order is None else list(order)
-    max_loops = n + 1
+    # Every state after k crossings is A^-k Q(A^2): a smoothing's A^+1 is one
+    # digit up in B = A^2 and its A^-1 costs nothing; a loop multiplies Q by
+    # -(B + B^-1).  Q is packed with B = 2^bits, balanced digits, and an offset
+    # of n + 2 digits for the B^-1 of up to n + 1 loops.
     bits = 2 * n + 8
-    offset = n + 2 * max_loops + 2  # keeps every exponent of A non-negative
+    offset = n + 2
     one = 1 << (bits * offset)
-    shift2 = 2 * bits
 
     state_bytes = packed_state_bytes(n)
+    # A state is the matching of the open boundary made by the processed part,
+    # as bytes: key[i] is the position paired with position i.
     bnd: list[int] = []
-    states: dict[tuple, int] = {(): one}
-    processed: set[int] = set()
+    states: dict[bytes, int] = {b"": one}
+    smoothings = (((1, 0, 3, 2), True), ((3, 2, 1, 0), False))
     for ci in order:
         x = xs[ci]
-        pos_in_bnd = set(bnd)
-        kind = []  # per position: 'close', 'self', 'open'
-        for p, e in enumerate(x):
-            if e in pos_in_bnd:
-                kind.append("close")
-            elif x.count(e) == 2:
-                kind.append("self")
-            else:
-                kind.append("open")
-        twin = {}
-        for p in range(4):
-            if kind[p] == "self":
-                twin[p] = next(q for q in range(4) if q != p and x[q] == x[p])
-        pos_of_label = {x[p]: p for p in range(4) if kind[p] == "close"}
-        closing = set(pos_of_label)
-        new_open = [x[p] for p in range(4) if kind[p] == "open"]
-        bnd2 = [e for e in bnd if e not in closing] + new_open
-        untouched = [e for e in bnd if e not in closing]
-        new_states: dict[tuple, int] = {}
-        for smooth, up in (((1, 0, 3, 2), True), ((3, 2, 1, 0), False)):
-            # smooth[p] = position joined with p by this smoothing
-            for key, value in states.items():
-                partner = dict(zip(bnd, key))
-                newp: dict[int, int] = {}
-                visited = [False] * 4
-
-                def walk(p: int) -> int:
-                    """Follow from position p (entering the crossing side) to an endpoint label."""
-                    while True:
-                        visited[p] = True
-                        q = smooth[p]
-                        visited[q] = True
-                        k = kind[q]
-                        if k == "open":
-                            return x[q]
-                        if k == "self":
-                            p = twin[q]
-                            continue
-                        u = partner[x[q]]
-                        if u in closing:
-                            p = pos_of_label[u]
-                            continue
-                        return u
-
-                # endpoints: new open positions and untouched labels joined to closing ones
-                for p in range(4):
-                    if kind[p] == "open" and not visited[p]:
-                        end = walk(p)
-                        newp[x[p]] = end
-                        newp[end] = x[p]
-                for u in untouched:
-                    if u in newp:
-                        continue
-                    v = partner[u]
-                    if v in closing:
-                        end = walk(pos_of_label[v])
-                        newp[u] = end
-                        newp[end] = u
-                loops = 0
-                for p in range(4):
-                    if not visited[p]:
-                        loops += 1
-                        q = p
-                        while not visited[q]:
-                            visited[q] = True
-                            r = smooth[q]
-                            visited[r] = True
-                            if kind[r] == "self":
-                                q = twin[r]
-                            else:
-                                q = pos_of_label[partner[x[r]]]
-                v = value << bits if up else value >> bits
+        bnd2, slices, closing, kinds, renumber, n_open = _step_plan(x, bnd)
+        if len(bnd2) > 255:
+            raise InvariantError(f"the contraction's open boundary reaches {len(bnd2)} edges "
+                                 "(more than 255): the Kauffman bracket is out of reach",
+                                 value=len(bnd2))
+        tail = bytes(n_open)
+        pick = itemgetter(*closing) if closing else (lambda key: ())
+        recipes: dict = {}
+        new_states: dict[bytes, int] = {}
+        get = new_states.get
+        for key, value in states.items():
+            partners = pick(key)
+            recipe = recipes.get(partners)
+            if recipe is None:
+                where = dict(zip(closing, partners if len(closing) != 1 else (partners,),
+                                 strict=True))
+                recipe = recipes[partners] = tuple(
+                    _smoothing_recipe(kinds, where, smooth, renumber) + (up,)
+                    for smooth, up in smoothings)
+            base = bytearray(b"".join([key[a:b] for a, b in slices])).translate(renumber)
+            base += tail
+            for loops, pairs, up in recipe:
+                new = bytearray(base)
+                for a, b in pairs:
+                    new[a] = b
+                    new[b] = a
+                v = value << bits if up else value
                 for _ in range(loops):
-                    v = -(v << shift2) - (v >> shift2)
-                newkey = tuple(newp[e] if e in newp else partner[e] for e in bnd2)
-                new_states[newkey] = new_states.get(newkey, 0) + v
+                    v = -(v << bits) - (v >> bits)
+                k = bytes(new)
+                new_states[k] = get(k, 0) + v
         states = {k: v for k, v in new_states.items() if v}
         bnd = bnd2
-        processed.add(ci)
         if not states:
             return Laurent.constant(0)
         bracket_progress(len(states), state_bytes)  # stops past the memory or time budget
-    value = states.get((), 0)
+    value = states.get(b"", 0)
     digits = _decode(value, bits)
-    coeffs = {k - offset: c for k, c in enumerate(digits) if c}
+    coeffs = {2 * (k - offset) - n: c for k, c in enumerate(digits) if c}
     d = Laurent({2: -1, -2: -1})
     bracket = Laurent(_divide_by_loop(coeffs))
     for _ in range(free):
