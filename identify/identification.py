@@ -293,6 +293,56 @@ def _cost_dict(staged) -> dict:
     return out
 
 
+def connected_sum_parts(simple: Diagram) -> list[Diagram]:
+    """The prime parts of a diagram split along decomposing circles, or [] when none is seen.
+
+    Uses ``knotsift.decomposition.connected_sum_factors`` when that module is
+    installed; without it no split is seen and connected sums are found from
+    the invariants alone.
+    """
+    try:
+        from .decomposition import connected_sum_factors
+    except ImportError:
+        return []
+    parts = connected_sum_factors(simple)
+    return parts if len(parts) >= 2 else []
+
+
+def _split_parts(simple: Diagram, table: ReferenceTable):
+    """(candidate, note) when the diagram splits and every part is identified, else None."""
+    parts = connected_sum_parts(simple)
+    if not parts:
+        return None
+    factors = []
+    for part in parts:
+        r = identify_diagram(part, table)
+        if r.status != "identified":
+            return None
+        c = r.candidates[0]
+        if c.factors:
+            factors.extend(c.factors)
+        elif c.kind == "prime":
+            factors.append({"name": c.name, "label": c.label, "chirality": c.chirality})
+        elif c.kind != "unknot":
+            return None  # a table composite part: leave it to the invariants
+    if len(factors) < 2:
+        return None
+    from .factorisation import Factor, Factorisation
+
+    fz = Factorisation(tuple(sorted(
+        (Factor(f["name"], f["label"], f["chirality"],
+                table.knot(f["name"])["crossing_number"], False) for f in factors),
+        key=lambda f: (f.crossing_number, f.name, f.chirality == "mirror"))))
+    label = fz.label
+    # each part was matched on its own; the whole's invariants are not compared here
+    cand = Candidate(name=fz.name, label=label, chirality=_sum_chirality(fz.factors),
+                     agrees=[], crossing_number=fz.crossing_sum, kind="composite",
+                     factors=[f.to_dict() for f in fz.factors])
+    note = (f"the diagram splits along decomposing circles into {len(parts)} parts, each "
+            f"identified on its own: {label}")
+    return cand, note
+
+
 def _finish_result(result: IdentifyResult, staged, simple: Diagram,
                    table: ReferenceTable) -> IdentifyResult:
     """Everything after the invariants: lookup, connected sums, key, bounds, notes."""
@@ -309,7 +359,12 @@ def _finish_result(result: IdentifyResult, staged, simple: Diagram,
     in_table = bool(candidates)
     partial_named = False
     search = None
-    if not in_table and fp.components == 1:
+    split = None if in_table or fp.components != 1 else _split_parts(simple, table)
+    if split is not None:
+        status, candidates = "identified", [split[0]]
+        result.factors, result.decomposition = split[0].factors, "diagram"
+        result.notes.append(split[1])
+    elif not in_table and fp.components == 1:
         from .factorisation import factorisations
 
         search = factorisations(table, fp.alexander, fp.determinant, fp.signature, fp.jones,
@@ -329,7 +384,7 @@ def _finish_result(result: IdentifyResult, staged, simple: Diagram,
         if status == "ambiguous":
             result.notes.append("several knots share every computed invariant; these "
                                 "invariants cannot decide between them")
-        if not in_table:
+        if not in_table and split is None:
             result.notes.append(FACTOR_NOTE)
         result.notes.extend(sep_notes)
     elif fp.components != 1:

@@ -165,3 +165,22 @@ def test_composite_label_orders_factors():
                                            0, Laurent.parse(f.jones) *
                                            Laurent.parse(f.jones).mirror()))(TABLE.form("3_1")))
     assert composite_label(r.solutions[0].factors) == "3_1#3_1*"
+
+
+def test_split_seen_in_the_diagram_is_used(monkeypatch):
+    """When the diagrammatic decomposition is available, a sum whose parts it returns is
+    identified part by part with decomposition "diagram" (the parts are supplied here by
+    construction, standing in for knotsift.decomposition)."""
+    import sys
+    import types
+
+    parts = [Diagram(TABLE.form(lab).pd()) for lab in ("3_1", "5_2*", "6_1")]
+    fake = types.ModuleType("knotsift.decomposition")
+    fake.connected_sum_factors = lambda d: parts
+    monkeypatch.setitem(sys.modules, "knotsift.decomposition", fake)
+    whole = parts[0].connected_sum(parts[1]).connected_sum(parts[2])
+    r = identify(whole, table=TABLE)
+    assert r.status == "identified" and r.decomposition == "diagram"
+    assert sorted((f["name"], f["chirality"]) for f in r.factors) == [
+        ("3_1", "same"), ("5_2", "mirror"), ("6_1", "same")]
+    assert r.name == "3_1#5_2*#6_1"
