@@ -317,6 +317,7 @@ class Staged:
     jones: str = "not requested"
     cost: JonesCost | None = None
     note: str | None = None
+    no_sum: bool = False  # no sum of table primes has these Alexander, det, signature
 
     def fingerprint(self):
         """The Fingerprint of what was computed (Jones None when skipped)."""
@@ -327,7 +328,8 @@ class Staged:
                            v["determinant"], v["signature"])
 
 
-def jones_can_name(table, alexander, determinant: int, signature: int) -> bool:
+def jones_can_name(table, alexander, determinant: int, signature: int,
+                   staged: "Staged | None" = None) -> bool:
     """True when some table knot, or product of table primes, has these mirror-blind values.
 
     Only then can the Jones polynomial help name the knot; otherwise no name
@@ -339,8 +341,10 @@ def jones_can_name(table, alexander, determinant: int, signature: int) -> bool:
             return True
     from .factorisation import factorisations
 
-    return bool(factorisations(table, alexander, determinant, signature, None,
-                               limit=1).solutions)
+    search = factorisations(table, alexander, determinant, signature, None, limit=1)
+    if staged is not None and search.complete and not search.solutions:
+        staged.no_sum = True  # identification need not search again
+    return bool(search.solutions) or not search.complete  # unsure: let Jones decide
 
 
 def staged_invariants(simple, table=None, budget: Budget | None = None,
@@ -403,7 +407,7 @@ def staged_invariants(simple, table=None, budget: Budget | None = None,
             from .table import open_table
 
             table = open_table()
-        if not jones_can_name(table, v["alexander"], v["determinant"], v["signature"]):
+        if not jones_can_name(table, v["alexander"], v["determinant"], v["signature"], st):
             st.jones = "not needed"
             st.note = ("the Jones polynomial was not computed: no table knot and no connected "
                        "sum of table knots has this Alexander polynomial, determinant and "

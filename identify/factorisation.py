@@ -38,6 +38,52 @@ __all__ = [
 
 #: At most this many factorisations (or groupings) are listed; the search says when it stopped.
 MAX_SOLUTIONS = 200
+#: At most this many steps of the search; past them it stops and says it is incomplete.
+MAX_STEPS = 20000
+
+#: Integer points where a divisor's value must divide the remainder's (a cheap filter
+#: before exact division: P = Q R in Z[s] gives Q(k) | P(k), with s = t^(1/2)).
+_POINTS = (2, 3, 5, 7)
+_HALF = Fraction(1, 2)
+
+
+@dataclass(frozen=True)
+class _Poly:
+    """A Laurent polynomial with what the search filters on: twice its span, its values."""
+
+    p: Laurent
+    span2: int
+    values: tuple
+
+    @classmethod
+    def of(cls, p: Laurent) -> "_Poly":
+        coeffs = p._coeffs
+        values = []
+        for k in _POINTS:
+            v = 0
+            for c in reversed(coeffs):
+                v = v * k + c
+            values.append(v)
+        return cls(p, len(coeffs) - 1, tuple(values))
+
+    def may_divide(self, other: "_Poly") -> bool:
+        """False when self certainly does not divide other (span or values)."""
+        if self.span2 > other.span2:
+            return False
+        for q, v in zip(self.values, other.values):
+            if (v != 0) if q == 0 else (v % q):
+                return False
+        return True
+
+    def quotient(self, other: "_Poly") -> "_Poly | None":
+        """other / self when exact."""
+        if not self.may_divide(other):
+            return None
+        q = exact_quotient(other.p, self.p)
+        return None if q is None else _Poly.of(q)
+
+    def is_unit(self) -> bool:
+        return self.span2 == 0 and abs(self.values[0]) == 1
 
 
 def exact_quotient(p: Laurent, q: Laurent) -> Laurent | None:
@@ -55,9 +101,8 @@ def exact_quotient(p: Laurent, q: Laurent) -> Laurent | None:
         raise ZeroDivisionError("division by the zero polynomial")
     if p.is_zero():
         return p
-    half = Fraction(1, 2)
-    num = p.coefficient_list(half)
-    den = q.coefficient_list(half)
+    num = p._coeffs  # dense in steps of t^(1/2), read directly on this hot path
+    den = q._coeffs
     if len(den) > len(num):
         return None
     lead = den[-1]
@@ -74,7 +119,7 @@ def exact_quotient(p: Laurent, q: Laurent) -> Laurent | None:
                 rem[k + j] -= c * d
     if any(rem[:len(den) - 1]):
         return None
-    return Laurent.from_coefficients(p.min_exponent - q.min_exponent, out, half)
+    return Laurent._new(p._low2 - q._low2, out)
 
 
 @dataclass(frozen=True)
@@ -164,6 +209,8 @@ class _Class:
     jones: Laurent | None
     forms: list = field(default_factory=list)
     span: int = 0
+    a: _Poly | None = None
+    v: _Poly | None = None
 
 
 def _prime_forms(table) -> list[dict]:
@@ -205,6 +252,9 @@ def _classes(table, with_jones: bool, with_signature: bool) -> list[_Class]:
     # non-trivial knot through 10 crossings), or Jones of positive span
     out = [c for c in by.values()
            if c.span > 0 or (c.jones is not None and c.jones.span() > 0)]
+    for c in out:
+        c.a = _Poly.of(c.alexander)
+        c.v = None if c.jones is None else _Poly.of(c.jones)
     out.sort(key=lambda c: (-c.span, c.determinant, str(c.alexander), c.signature or 0,
                             str(c.jones)))
     cache[key] = out
@@ -252,7 +302,8 @@ def _is_unit(p: Laurent) -> bool:
 
 def factorisations(table, alexander: Laurent, determinant: int | None = None,
                    signature: int | None = None, jones: Laurent | None = None,
-                   limit: int = MAX_SOLUTIONS, partial: bool = False) -> FactorSearch:
+                   limit: int = MAX_SOLUTIONS, partial: bool = False,
+                   max_steps: int = MAX_STEPS) -> FactorSearch:
     """Every multiset of table prime knots, with chirality, matching the given invariants.
 
     Parameters
@@ -268,6 +319,9 @@ def factorisations(table, alexander: Laurent, determinant: int | None = None,
     partial : bool
         When nothing factors completely, also find the largest divisors made of
         table primes and the remainders (only worth it with Jones).
+    max_steps : int
+        Stop after this many steps (``complete`` is then False).  Remainders
+        known to lead nowhere are remembered, so each is explored once.
 
     Returns
     -------
@@ -295,29 +349,42 @@ def factorisations(table, alexander: Laurent, determinant: int | None = None,
     leaves: list[tuple[list[_Class], Laurent, int, int | None, Laurent | None]] = []
     nodes = [0]
 
-    def divides(c: _Class, a_rem: Laurent, d_rem: int, v_rem: Laurent | None):
-        if c.span > a_rem.span() or d_rem % c.determinant:
+    def divides(c: _Class, a_rem: _Poly, d_rem: int, v_rem: _Poly | None):
+        if d_rem % c.determinant or not c.a.may_divide(a_rem):
             return None
-        if with_jones and c.jones.span() > v_rem.span():
+        if with_jones and not c.v.may_divide(v_rem):
             return None
-        qa = exact_quotient(a_rem, c.alexander)
+        qa = c.a.quotient(a_rem)
         if qa is None:
             return None
         qv = None
         if with_jones:
-            qv = exact_quotient(v_rem, c.jones)
+            qv = c.v.quotient(v_rem)
             if qv is None:
                 return None
         return qa, qv
 
-    def walk(start: int, a_rem: Laurent, d_rem: int, s_rem: int | None, v_rem, chosen):
+    dead: set = set()
+
+    def walk(start: int, a_rem: _Poly, d_rem: int, s_rem: int | None, v_rem, chosen):
         nodes[0] += 1
         if nodes[0] % 256 == 0:
             check_deadline("the connected-sum search")
-        if len(found) >= limit:
+        if len(found) >= limit or nodes[0] > max_steps:
             search.complete = False
             return
-        if _is_unit(a_rem) and d_rem == 1 and (not with_jones or v_rem == 1):
+        key = None
+        if not partial:
+            key = (start, a_rem.p, s_rem, None if v_rem is None else v_rem.p)
+            if key in dead:
+                return
+        before = len(found)
+        _walk_children(start, a_rem, d_rem, s_rem, v_rem, chosen)
+        if key is not None and len(found) == before and search.complete:
+            dead.add(key)
+
+    def _walk_children(start, a_rem, d_rem, s_rem, v_rem, chosen):
+        if a_rem.is_unit() and d_rem == 1 and (not with_jones or v_rem.p == 1):
             if chosen and (not with_sig or s_rem == 0):
                 found.append(list(chosen))
             elif chosen and partial:
@@ -340,7 +407,8 @@ def factorisations(table, alexander: Laurent, determinant: int | None = None,
                 divides(c, a_rem, d_rem, v_rem) for c in classes[:start]):
             leaves.append((list(chosen), a_rem, d_rem, s_rem, v_rem))
 
-    walk(0, alexander, det, signature, jones, [])
+    walk(0, _Poly.of(alexander), det, signature, None if jones is None else _Poly.of(jones),
+         [])
     for chosen in found:
         for fz in _expand(chosen, with_jones, limit):
             if len(search.solutions) >= limit:
@@ -351,8 +419,9 @@ def factorisations(table, alexander: Laurent, determinant: int | None = None,
     if partial and not search.solutions:
         for chosen, a_rem, d_rem, s_rem, v_rem in leaves[:limit]:
             for fz in _expand(chosen, with_jones, limit)[:limit]:
-                search.partial.append((fz, {"alexander": a_rem, "determinant": d_rem,
-                                            "signature": s_rem, "jones": v_rem}))
+                search.partial.append((fz, {"alexander": a_rem.p, "determinant": d_rem,
+                                            "signature": s_rem,
+                                            "jones": None if v_rem is None else v_rem.p}))
         search.partial.sort(key=lambda p: (-len(p[0].factors), p[0].label))
     return search
 
@@ -376,28 +445,36 @@ def alexander_groupings(table, alexander: Laurent, limit: int = MAX_SOLUTIONS
     complete = [True]
     nodes = [0]
 
-    def walk(start: int, rem: Laurent, chosen: list[_Class]):
+    dead: set = set()
+
+    def walk(start: int, rem: _Poly, chosen: list[_Class]):
         nodes[0] += 1
         if nodes[0] % 256 == 0:
             check_deadline("the Alexander grouping")
-        if len(found) >= limit:
+        if len(found) >= limit or nodes[0] > MAX_STEPS:
             complete[0] = False
             return
-        if _is_unit(rem):
+        if (start, rem.p) in dead:
+            return
+        before = len(found)
+        _children(start, rem, chosen)
+        if len(found) == before and complete[0]:
+            dead.add((start, rem.p))
+
+    def _children(start: int, rem: _Poly, chosen: list[_Class]):
+        if rem.is_unit():
             if chosen:
                 found.append(list(chosen))
             return
         for i in range(start, len(classes)):
             c = classes[i]
-            if c.span > rem.span():
-                continue
-            q = exact_quotient(rem, c.alexander)
+            q = c.a.quotient(rem)
             if q is not None:
                 chosen.append(c)
                 walk(i, q, chosen)
                 chosen.pop()
 
-    walk(0, alexander, [])
+    walk(0, _Poly.of(alexander), [])
     out = []
     for chosen in found:
         names = []

@@ -364,12 +364,19 @@ def _finish_result(result: IdentifyResult, staged, simple: Diagram,
         status, candidates = "identified", [split[0]]
         result.factors, result.decomposition = split[0].factors, "diagram"
         result.notes.append(split[1])
+    elif not in_table and fp.components == 1 and fp.jones is None and staged.no_sum:
+        from .factorisation import FactorSearch
+
+        search = FactorSearch(used=["alexander", "determinant", "signature"])  # known empty
     elif not in_table and fp.components == 1:
         from .factorisation import factorisations
 
         search = factorisations(table, fp.alexander, fp.determinant, fp.signature, fp.jones,
                                 partial=fp.jones is not None)
         candidates = _composite_candidates(search)
+        if not search.complete:
+            result.notes.append("the search for connected sums of table knots stopped at its "
+                                "step limit: the sums listed may not be all")
         if candidates:
             status = "identified" if len(candidates) == 1 else "ambiguous"
             result.decomposition = "invariants"
