@@ -207,26 +207,15 @@ def jones_cost(diagram) -> JonesCost:
     The estimate follows that recurrence; the contraction counts its real
     states as it goes and stops at the budget whatever the estimate said.
     """
-    from .invariants.bracket import contraction_order
+    from .invariants.bracket import boundary_widths, contraction_order
 
-    xs = diagram.crossings
-    n = len(xs)
+    n = len(diagram.crossings)
     order = contraction_order(diagram)
-    seen: set[int] = set()
-    width = widest = 0
+    widths = boundary_widths(diagram, order)
+    widest = max(widths, default=0)
     peak = states = 1
     work = 0
-    for i in order:
-        x = xs[i]
-        for e in set(x):
-            if x.count(e) == 2:
-                continue
-            if e in seen:
-                width -= 1
-            else:
-                seen.add(e)
-                width += 1
-        widest = max(widest, width)
+    for width in widths:
         states = min(2 * _boundary_states(width), 2 * states)
         peak = max(peak, states)
         work += states

@@ -39,9 +39,9 @@ def _chirality(knot: dict, matched: list) -> str:
     return "same" if matched[0].is_reference else "mirror"
 
 
-def match_fingerprint(fp: Fingerprint, table: ReferenceTable) -> tuple[str, list[Candidate]]:
-    """Exact lookup: the status and the candidates whose whole fingerprint equals ``fp``."""
-    forms = table.by_fingerprint(fp.key())
+def _candidates_of(forms, table: ReferenceTable, agrees: list[str]
+                   ) -> tuple[str, list[Candidate]]:
+    """The status and one candidate per knot among the matched table forms."""
     by_name: dict[str, list] = {}
     for f in forms:
         by_name.setdefault(f.name, []).append(f)
@@ -51,13 +51,18 @@ def match_fingerprint(fp: Fingerprint, table: ReferenceTable) -> tuple[str, list
         chir = _chirality(knot, matched)
         label = matched[0].label if chir in ("same", "mirror") else name
         candidates.append(Candidate(
-            name=name, label=label, chirality=chir, agrees=list(INVARIANT_NAMES),
+            name=name, label=label, chirality=chir, agrees=list(agrees),
             crossing_number=knot["crossing_number"], kind=knot["kind"],
             aliases=[a.strip() for a in knot["aliases"].split(";") if a.strip()]))
     candidates.sort(key=lambda c: (c.crossing_number, c.name))
     if not candidates:
         return "not in table", []
     return ("identified" if len(candidates) == 1 else "ambiguous"), candidates
+
+
+def match_fingerprint(fp: Fingerprint, table: ReferenceTable) -> tuple[str, list[Candidate]]:
+    """Exact lookup: the status and the candidates whose whole fingerprint equals ``fp``."""
+    return _candidates_of(table.by_fingerprint(fp.key()), table, list(INVARIANT_NAMES))
 
 
 def _separation(fp: Fingerprint, table: ReferenceTable, candidates: list[Candidate]
@@ -120,25 +125,10 @@ def _chirality_note(fp: Fingerprint, cand: Candidate) -> str:
 def _match_without_jones(fp: Fingerprint, table: ReferenceTable
                          ) -> tuple[str, list[Candidate]]:
     """Lookup by Alexander polynomial, determinant and signature (Jones not computed)."""
-    by_name: dict[str, list] = {}
-    for f in table.by_invariant("alexander", str(fp.alexander)):
-        if f.determinant == fp.determinant and f.signature == fp.signature \
-                and f.components == fp.components:
-            by_name.setdefault(f.name, []).append(f)
-    candidates = []
-    for name, matched in by_name.items():
-        knot = table.knot(name)
-        chir = _chirality(knot, matched)
-        label = matched[0].label if chir in ("same", "mirror") else name
-        candidates.append(Candidate(
-            name=name, label=label, chirality=chir,
-            agrees=["alexander", "determinant", "signature"],
-            crossing_number=knot["crossing_number"], kind=knot["kind"],
-            aliases=[a.strip() for a in knot["aliases"].split(";") if a.strip()]))
-    candidates.sort(key=lambda c: (c.crossing_number, c.name))
-    if not candidates:
-        return "not in table", []
-    return ("identified" if len(candidates) == 1 else "ambiguous"), candidates
+    forms = [f for f in table.by_invariant("alexander", str(fp.alexander))
+             if f.determinant == fp.determinant and f.signature == fp.signature
+             and f.components == fp.components]
+    return _candidates_of(forms, table, ["alexander", "determinant", "signature"])
 
 
 def _sum_chirality(factors) -> str:

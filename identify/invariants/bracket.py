@@ -122,11 +122,11 @@ def contraction_order(diagram: Diagram, tries: int = 40, seed: int = 0) -> list[
     return best[1]
 
 
-def contraction_width(diagram: Diagram, order: Sequence[int] | None = None) -> int:
-    """Largest number of open edges along the contraction order."""
-    order = contraction_order(diagram) if order is None else order
+def boundary_widths(diagram: Diagram, order: Sequence[int]) -> list[int]:
+    """The number of open edges after each crossing of ``order`` is added."""
     seen: set[int] = set()
-    width = widest = 0
+    width = 0
+    out = []
     for i in order:
         x = diagram.crossings[i]
         for e in set(x):
@@ -137,8 +137,14 @@ def contraction_width(diagram: Diagram, order: Sequence[int] | None = None) -> i
             else:
                 seen.add(e)
                 width += 1
-        widest = max(widest, width)
-    return widest
+        out.append(width)
+    return out
+
+
+def contraction_width(diagram: Diagram, order: Sequence[int] | None = None) -> int:
+    """Largest number of open edges along the contraction order."""
+    order = contraction_order(diagram) if order is None else order
+    return max(boundary_widths(diagram, order), default=0)
 
 
 def _decode(value: int, bits: int) -> list[int]:
