@@ -1,6 +1,7 @@
 """knotsift: identify knots in diagrams and 3D curves by exact invariants."""
 
 from .diagram import Diagram
+from .display import to_dataframe
 from .errors import (
     CurveError,
     DiagramError,
@@ -16,6 +17,7 @@ from .result import IdentifyResult
 
 __all__ = [
     "identify",
+    "to_dataframe",
     "IdentifyResult",
     "Diagram",
     "Laurent",

@@ -1,8 +1,10 @@
 """The ``knotsift`` command: thin wrappers, each calling one library function.
 
 Exit codes: 0 success; 1 some inputs could not be read (their errors are
-reported, the rest is processed); 2 usage error; 3 the reference table is
-missing or unreadable.
+reported, the rest is processed), or a name given to ``show`` is not in the
+table; 2 usage error; 3 the reference table is missing or unreadable; 141
+standard output was closed early (``knotsift ... | head``): the command stops
+quietly, as a process ended by SIGPIPE would.
 """
 
 from __future__ import annotations
@@ -16,20 +18,32 @@ __all__ = ["main"]
 NOTATION_CHOICES = ("pd", "dt", "gauss", "braid", "conway")
 
 
-def _inputs(args) -> list[tuple[str, str]]:
-    """(label, text) of every input: inline codes, --file, standard input, or the demo."""
+def _inputs(args) -> list[tuple[str, object]]:
+    """(label, text) of every input: inline codes, files, --file, standard input, or the demo.
+
+    An argument naming an existing file is read as a file (:func:`_file_items`);
+    a path-like argument naming no file becomes an error item ("no such
+    file"), a :class:`~knotsift.errors.NotationError` in place of the text.
+    """
     from .errors import NotationError
 
-    items: list[tuple[str, str]] = []
+    items: list[tuple[str, object]] = []
     if args.demo:
         from .demo import demo_path
 
         args.file = [str(demo_path())]
     for k, code in enumerate(args.code or []):
+        label = f"input {k + 1}" if len(args.code) > 1 else "input"
         if code == "-":
             items.extend(_lines(sys.stdin.read().splitlines(), "stdin"))
+        elif _is_file(code):
+            items.extend(_file_items(code))
+        elif _looks_like_path(code):
+            items.append((label, NotationError(
+                f"no such file: {code!r} (the argument looks like a file name; a code "
+                "with a name, such as 'DT: 4 6 2', is never read as one)", value=code)))
         else:
-            items.append((f"input {k + 1}" if len(args.code) > 1 else "input", code))
+            items.append((label, code))
     for path in args.file or []:
         try:
             with open(path, encoding="utf-8") as fh:
@@ -39,6 +53,62 @@ def _inputs(args) -> list[tuple[str, str]]:
     if not items and not sys.stdin.isatty() and not args.code and not args.file:
         items.extend(_lines(sys.stdin.read().splitlines(), "stdin"))
     return items
+
+
+def _is_file(text: str) -> bool:
+    from pathlib import Path
+
+    try:
+        return len(text) < 4096 and "\n" not in text and Path(text).is_file()
+    except (OSError, ValueError):
+        return False
+
+
+def _looks_like_path(text: str) -> bool:
+    """A path separator, or a name ending in a suffix such as ``.json`` or ``.xyz``.
+
+    No notation uses letters after a dot (Conway's ``.2.20`` has digits), so
+    a suffix of letters marks a file name.
+    """
+    import re
+
+    s = text.strip()
+    if not s or any(ch.isspace() for ch in s):
+        return False
+    return "/" in s or "\\" in s or re.fullmatch(r"[^.]+(\.[^.]+)*\.[A-Za-z][A-Za-z0-9]{0,7}",
+                                                  s) is not None
+
+
+def _file_items(path: str) -> list[tuple[str, object]]:
+    """The codes of an existing file named as an argument.
+
+    ``.json``: a PD code (a list of 4-lists), any one code as a JSON list, or
+    a list of code strings.  Other files: one code per line, as ``--file``.
+    Coordinate files are routed to the 3D path before this is reached.
+    """
+    from .errors import NotationError
+
+    try:
+        with open(path, encoding="utf-8") as fh:
+            text = fh.read()
+    except (OSError, UnicodeDecodeError) as exc:
+        reason = getattr(exc, "strerror", None) or "not a text file"
+        return [(path, NotationError(f"cannot read {path}: {reason}", value=path))]
+    if path.lower().endswith(".json"):
+        import json as _json
+
+        try:
+            data = _json.loads(text)  # parsed as data, never evaluated
+        except ValueError as exc:
+            return [(path, NotationError(f"{path}: not valid JSON ({exc})", value=path))]
+        if isinstance(data, list) and data and all(isinstance(x, str) for x in data):
+            return [(f"{path}, item {k + 1}", x) for k, x in enumerate(data)]
+        if isinstance(data, list):
+            return [(path, _json.dumps(data))]
+        return [(path, NotationError(f"{path}: expected a JSON list (a PD code such as "
+                                     "[[1,5,2,4],[3,1,4,6],[5,3,6,2]], or a list of codes), "
+                                     f"found a JSON {type(data).__name__}", value=path))]
+    return _lines(text.splitlines(), path)
 
 
 def _lines(lines: list[str], where: str) -> list[tuple[str, str]]:
@@ -78,6 +148,8 @@ def _cmd_identify(args) -> int:
     results = []
     for label, text in items:
         try:
+            if isinstance(text, KnotsiftError):
+                raise text
             with item_budget(budget):
                 r = identify(text, args.notation, table=table, neighbours=args.neighbours,
                              label=label)
@@ -86,7 +158,11 @@ def _cmd_identify(args) -> int:
                 raise
             r = IdentifyResult(status="error", error=str(exc), source=label)
         results.append(r)
-        if not args.json:
+        if getattr(args, "brief", False) and not args.json:
+            from .brief import brief_line
+
+            print(brief_line(r))
+        elif not args.json:
             print(r.to_text())
             if len(items) > 1:
                 print()
@@ -97,7 +173,7 @@ def _cmd_identify(args) -> int:
         json.dump({"schema_version": JSON_SCHEMA_VERSION, "results": [r.to_dict() for r in results],
                    "summary": summary}, sys.stdout, indent=2)
         print()
-    elif len(results) > 1:
+    elif len(results) > 1 and not getattr(args, "brief", False):
         print("summary: " + ", ".join(f"{v} {k}" for k, v in summary.items() if k != "total")
               + f" of {summary['total']}")
     if summary["error"]:
@@ -109,25 +185,36 @@ def _cmd_identify(args) -> int:
 
 
 def _cmd_show(args) -> int:
-    from .entry import describe_entry
-    from .names import find_name
+    from .entry import describe_entry, entry_text
+    from .names import resolve_name
     from .table import open_table
 
     table = open_table(args.table)
-    matches = find_name(args.name, table)
-    if not matches:
-        print(f"knotsift show: no table entry resembles {args.name!r}", file=sys.stderr)
+    found = resolve_name(args.name, table)
+    best = found.match
+    if best is None:
+        hint = ""
+        if found.suggestions:
+            hint = "; did you mean: " + ", ".join(
+                f"{m.name} ({m.how})" for m in found.suggestions) + "?"
+        if args.json:
+            json.dump({"query": args.name, "found": False, "reason": found.reason,
+                       "did_you_mean": [m.name for m in found.suggestions]}, sys.stdout,
+                      indent=2)
+            print()
+        print(f"knotsift show: {found.reason}{hint}", file=sys.stderr)
         return 1
-    best = matches[0]
     info = describe_entry(best.name, best.mirrored, table)
-    info["matched_by"] = best.how
-    info["other_matches"] = [m.name for m in matches[1:]]
+    info.update(query=args.name, matched_by=best.how, guess=best.guess,
+                notes=list(found.notes),
+                other_matches=[m.name for m in found.suggestions if m.name != best.name])
+    if best.guess:
+        print(f"knotsift show: no table entry is named {args.name!r}; showing {info['label']} "
+              f"as a guess ({best.how})", file=sys.stderr)
     if args.json:
         json.dump(info, sys.stdout, indent=2)
         print()
     else:
-        from .entry import entry_text
-
         print(entry_text(info))
     return 0
 
@@ -181,10 +268,15 @@ def _parser() -> argparse.ArgumentParser:
     q.add_argument("--neighbours", action="store_true",
                    help="also list table knots one crossing change away")
     q.add_argument("--json", action="store_true", help="machine-readable output (see README)")
+    q.add_argument("--brief", action="store_true",
+                   help="one line per item: where, status, answer (tab-separated)")
     q.add_argument("--table", help="use this reference table file instead of the shipped one")
     from .budget import add_budget_arguments
 
     add_budget_arguments(q)
+    from .curves.commands import add_reader_options  # for 3D and MD files given to identify
+
+    add_reader_options(q)
     q.set_defaults(func=_cmd_identify)
 
     s = sub.add_parser("show", help="print a table entry, found by a name typed loosely")
@@ -221,14 +313,42 @@ def _parser() -> argparse.ArgumentParser:
     return p
 
 
+#: Exit status after the reader of standard output went away (128 + SIGPIPE, as a shell
+#: reports a process ended by that signal; common practice).
+CLOSED_PIPE_EXIT = 141
+
+
+def _closed_pipe() -> int:
+    """Quiet exit when standard output is a pipe whose reader closed (``knotsift ... | head``).
+
+    Standard output is pointed at the null device so that the interpreter's
+    final flush does not raise again; nothing is printed.
+    """
+    import os
+
+    try:
+        devnull = os.open(os.devnull, os.O_WRONLY)
+        os.dup2(devnull, sys.stdout.fileno())
+    except (OSError, ValueError):
+        pass
+    return CLOSED_PIPE_EXIT
+
+
 def main(argv: list[str] | None = None) -> int:
     """Entry point of the ``knotsift`` command."""
     from .errors import KnotsiftError, TableError
 
     parser = _parser()
-    args = parser.parse_args(argv)
     try:
-        return args.func(args)
+        args = parser.parse_args(argv)  # --help writes to standard output too
+    except BrokenPipeError:
+        return _closed_pipe()
+    try:
+        code = args.func(args)
+        sys.stdout.flush()  # a closed pipe shows here, inside the handler below
+        return code
+    except BrokenPipeError:
+        return _closed_pipe()
     except TableError as exc:
         if args.debug:
             raise

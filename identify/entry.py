@@ -9,6 +9,19 @@ __all__ = ["describe_entry", "entry_text"]
 _INVS = ("jones", "alexander", "determinant", "signature")
 
 
+def _chirality(knot: dict, form, forms: list) -> str:
+    """The chirality word identify would print for this form (result.CHIRALITIES).
+
+    A chiral knot whose two forms share every stored invariant is
+    "undetermined", as :func:`knotsift.identification.identify` says of it.
+    """
+    if knot["amphichiral"]:
+        return "amphichiral"
+    if len(forms) < 2 or len({f.fingerprint for f in forms}) < 2:
+        return "undetermined"
+    return "mirror" if not form.is_reference else "same"
+
+
 def describe_entry(name: str, mirrored: bool, table: ReferenceTable) -> dict:
     """Everything the table knows about one knot, in the requested chirality."""
     knot = table.knot(name)
@@ -26,8 +39,7 @@ def describe_entry(name: str, mirrored: bool, table: ReferenceTable) -> dict:
         "name": name,
         "label": form.label,
         "kind": knot["kind"],
-        "chirality": ("amphichiral" if knot["amphichiral"] else
-                      ("mirror" if not form.is_reference else "same")),
+        "chirality": _chirality(knot, form, forms),
         "chirality_basis": knot["chirality_basis"],
         "crossing_number": knot["crossing_number"],
         "alternating": bool(knot["alternating"]),
@@ -44,8 +56,14 @@ def describe_entry(name: str, mirrored: bool, table: ReferenceTable) -> dict:
 
 def entry_text(info: dict) -> str:
     chir = {"amphichiral": "amphichiral", "mirror": "mirror image of the reference diagram",
-            "same": "reference diagram"}[info["chirality"]]
-    lines = [f"{info['label']}  ({info['kind']}, {info['crossing_number']} crossings, "
+            "same": "reference diagram",
+            "undetermined": "chiral, but these invariants do not tell it from its mirror "
+                            "image"}[info["chirality"]]
+    lines = []
+    if info.get("guess"):
+        lines.append(f"guess: no entry is named {info['query']!r}; the closest is shown "
+                     f"({info['matched_by']})")
+    lines += [f"{info['label']}  ({info['kind']}, {info['crossing_number']} crossings, "
              f"{'alternating' if info['alternating'] else 'non-alternating'}; {chir})"]
     if info["aliases"]:
         lines.append(f"  also known as: {', '.join(info['aliases'])}")
@@ -63,4 +81,6 @@ def entry_text(info: dict) -> str:
             shown = ", ".join(others[:10]) + (f" and {len(others) - 10} more"
                                               if len(others) > 10 else "")
             lines.append(f"  same {inv} as: {shown}")
+    for note in info.get("notes", []):
+        lines.append(f"  note: {note}")
     return "\n".join(lines)

@@ -484,6 +484,7 @@ def identify_diagram(diagram: Diagram, table: ReferenceTable | None = None,
             if not given:
                 staged_invariants(simple, table, staged=staged)
             _finish_result(result, staged, simple, table)
+            _unknot_basis(result)
         except TooComplex as exc:
             return _too_complex(result, staged, exc)
     if neighbours:
@@ -568,15 +569,29 @@ def identify(source, notation: str | None = None, *, table: ReferenceTable | Non
     table = table or open_table()
     if isinstance(source, Diagram):
         return identify_diagram(source, table, neighbours, label, "diagram")
-    from .notations.detect import detect_notation, parse_any_with_uncertain
+    from .notations.detect import detect_notation, parse_any_with_uncertain, reading_of
 
     used = notation or detect_notation(source)
+    flipped = _dt_drawings_result(source, used, table, neighbours, label)
+    if flipped is not None:
+        flipped.notation_how, unsure = reading_of(source, notation, used)
+        if unsure:
+            flipped.notes.insert(0, unsure)
+        return flipped
     diagram, uncertain = parse_any_with_uncertain(source, used)
     if len(uncertain) > MAX_UNCERTAIN:
         raise DiagramError(f"at most {MAX_UNCERTAIN} crossings may be marked uncertain "
                            f"(2^{MAX_UNCERTAIN} resolutions), got {len(uncertain)}",
                            value=len(uncertain))
     result = identify_diagram(diagram, table, neighbours, label, used)
+    result.notation_how, unsure = reading_of(source, notation, used)
+    if unsure:
+        result.notes.insert(0, unsure)
+    if used == "conway":
+        from .two_bridge import settle_two_bridge
+
+        settle_two_bridge(result, source, table)
+        _rational_is_prime(result, source)
     if uncertain:
         as_drawn = _short(result.candidates, result.invariants["jones"])
         result.resolutions, resolved = _resolutions(diagram, uncertain, table)
@@ -592,6 +607,60 @@ def identify(source, notation: str | None = None, *, table: ReferenceTable | Non
             result.notes.insert(0, f"all {1 << len(uncertain)} resolutions of the uncertain "
                                    "crossings give the same result")
     return result
+
+
+def _dt_drawings_result(source: str, used: str, table: ReferenceTable, neighbours: bool,
+                        label: str) -> IdentifyResult | None:
+    """For a DT code whose shadow has pieces that may flip: every drawing identified, else None."""
+    if used != "dt":
+        return None
+    from .flips import identify_drawings
+    from .notations.dt import dt_drawings
+
+    drawings, pieces = dt_drawings(source)
+    if len(drawings) == 1:
+        return None
+    result = identify_drawings(drawings, pieces, table,
+                               lambda d: identify_diagram(d, table, neighbours, label, used))
+    result.resolved_over = "the drawings of the code"
+    return result
+
+
+def _rational_is_prime(result: IdentifyResult, source: str) -> None:
+    """A rational input is prime (Schubert 1956): drop sums found from its invariants."""
+    from .two_bridge import input_fraction
+
+    if result.decomposition != "invariants" or not isinstance(source, str) \
+            or input_fraction(source) is None:
+        return
+    shown = ", ".join(c.shown for c in result.candidates) or "the named factors"
+    result.status, result.candidates = "not in table", []
+    result.factors = result.decomposition = result.remainder = None
+    result.primality = "prime"
+    result.notes = [n for n in result.notes if n != FACTOR_NOTE
+                    and not n.startswith("several knots share")
+                    and not n.startswith("each factor's chirality")]
+    result.notes.insert(0, f"the input is a rational (2-bridge) knot, and 2-bridge knots are "
+                           f"prime (Schubert 1956): {shown}, consistent with its invariants, "
+                           "is ruled out; the knot is beyond the table")
+
+
+def _unknot_basis(result: IdentifyResult) -> None:
+    """Say whether an unknot verdict is a proof (trivial diagram) or evidence (invariants)."""
+    if result.status != "identified" or result.candidates[0].name != "0_1":
+        return
+    c = result.candidates[0]
+    if result.crossings_simplified == 0:
+        c.basis = "trivial diagram"
+        result.notes = [n for n in result.notes if not n.startswith("all computed invariants")
+                        and n != EVIDENCE_NOTE]
+        result.notes.insert(0, "proof: the diagram simplifies to the trivial diagram (no "
+                               "crossings) by Reidemeister moves, so it is the unknot")
+    else:
+        c.basis = "invariants"
+        result.notes.insert(0, f"evidence only: the diagram kept {result.crossings_simplified} "
+                               "crossings after simplification, and its invariants equal the "
+                               "unknot's; no proof that it is the unknot")
 
 
 def safe_identify(source, notation=None, **kw) -> IdentifyResult:

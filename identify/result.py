@@ -8,6 +8,8 @@ from __future__ import annotations
 
 from dataclasses import dataclass, field
 
+from .display import ResultValues
+
 __all__ = ["Candidate", "IdentifyResult", "STATUSES", "CHIRALITIES", "PRIMALITIES",
            "DECOMPOSITIONS", "JSON_SCHEMA_VERSION"]
 
@@ -20,6 +22,16 @@ CHIRALITIES = ("same", "mirror", "amphichiral", "undetermined", "per factor")
 PRIMALITIES = ("prime", "composite", "unknot", "unknown")
 #: Values of ``IdentifyResult.decomposition``: how a connected sum was seen.
 DECOMPOSITIONS = ("diagram", "invariants")
+
+
+def _notation_words(notation: str, how: str) -> str:
+    """'DT code (detected)', 'braid word (named in the text)', '3D coordinates'."""
+    names = {"pd": "PD code", "dt": "DT code", "gauss": "Gauss code", "braid": "braid word",
+             "conway": "Conway notation", "diagram": "a diagram object"}
+    shown = names.get(notation, notation)
+    why = {"detected": "detected", "named": "named in the text",
+           "given": "as requested"}.get(how)
+    return f"{shown} ({why})" if why else shown
 
 
 @dataclass
@@ -41,9 +53,13 @@ class Candidate:
         if self.chirality in ("same", "mirror", "per factor"):
             return self.label
         return self.name
+    #: What the verdict rests on: "invariants" (a match: evidence), or for the
+    #: unknot "trivial diagram" (the diagram simplified to no crossings: proof).
+    basis: str = "invariants"
 
     def to_dict(self) -> dict:
         return {
+            "basis": self.basis,
             "name": self.name,
             "label": self.label,
             "chirality": self.chirality,
@@ -56,8 +72,12 @@ class Candidate:
 
 
 @dataclass
-class IdentifyResult:
-    """What could be said about one input diagram."""
+class IdentifyResult(ResultValues):
+    """What could be said about one input diagram.
+
+    ``invariant_values`` gives the invariants as values (Laurent, int), and
+    Jupyter shows the result as a small table (see :mod:`knotsift.display`).
+    """
 
     status: str
     candidates: list[Candidate] = field(default_factory=list)
@@ -66,6 +86,7 @@ class IdentifyResult:
     notes: list[str] = field(default_factory=list)
     source: str = ""
     notation: str = ""
+    notation_how: str = ""
     crossings_input: int | None = None
     crossings_simplified: int | None = None
     resolutions: list[dict] | None = None
@@ -78,6 +99,8 @@ class IdentifyResult:
     decomposition: str | None = None
     remainder: dict | None = None
     cost: dict = field(default_factory=dict)
+    #: What the resolutions range over, for the text report.
+    resolved_over: str = "the uncertain crossings"
 
     @property
     def name(self) -> str | None:
@@ -91,6 +114,7 @@ class IdentifyResult:
             "schema_version": JSON_SCHEMA_VERSION,
             "source": self.source,
             "notation": self.notation,
+            "notation_how": self.notation_how,
             "status": self.status,
             "name": self.name,
             "candidates": [c.to_dict() for c in self.candidates],
@@ -127,10 +151,15 @@ class IdentifyResult:
                               "factor)",
             }[c.chirality]
             alias = f" ({', '.join(c.aliases)})" if c.aliases else ""
-            lines.append(f"{head}{c.shown}{alias}: {chir}")
+            shown = c.shown
+            if c.name == "0_1":
+                chir = {"trivial diagram": "proven, the diagram simplifies to no crossings",
+                        "invariants": "by its invariants only (evidence, not proof)"}.get(
+                            c.basis, chir)
+            lines.append(f"{head}{shown}{alias}: {chir}")
         elif self.status == "ambiguous" and self.resolutions:
             shown = ", ".join(f"{r['result']} ({r['fraction']:.0%})" for r in self.resolutions)
-            lines.append(f"{head}ambiguous over the uncertain crossings: {shown}")
+            lines.append(f"{head}ambiguous over {self.resolved_over}: {shown}")
         elif self.status == "ambiguous":
             names = ", ".join(c.shown for c in self.candidates)
             lines.append(f"{head}ambiguous: {names}")
@@ -148,6 +177,8 @@ class IdentifyResult:
             else:
                 lines.append(f"  crossing number: {lo if lo is not None else '?'} to "
                              f"{hi if hi is not None else '?'}")
+        if self.notation:
+            lines.append(f"  read as: {_notation_words(self.notation, self.notation_how)}")
         if self.crossings_input is not None:
             lines.append(f"  crossings: {self.crossings_input} in the input, "
                          f"{self.crossings_simplified} after simplification")
@@ -160,7 +191,7 @@ class IdentifyResult:
                     if sep else ""
                 lines.append(f"  {label:<11} {self.invariants[key]}{share}")
         if self.resolutions:
-            lines.append("  resolutions of the uncertain crossings:")
+            lines.append(f"  resolutions of {self.resolved_over}:")
             for r in self.resolutions:
                 lines.append(f"    {r['fraction']:6.1%}  {r['result']}  ({r['count']} of "
                              f"{r['total']})")

@@ -54,10 +54,12 @@ def test_identify_file_with_a_bad_line(capsys, tmp_path):
 def test_show_fuzzy(capsys):
     """Names are found despite variants and typos."""
     for query, name in (("figure eight", "4_1"), ("7-4", "7_4"), ("74", "7_4"),
-                        ("trefoil", "3_1"), ("figure-eigth", "4_1")):
+                        ("trefoil", "3_1")):
         code, out, _ = run(capsys, "show", query)
         assert code == 0
         assert out.startswith(name), (query, out)
+    code, out, err = run(capsys, "show", "figure-eigth")  # a typo: shown, marked as a guess
+    assert code == 0 and out.startswith("guess:") and "\n4_1 " in out and "guess" in err
     code, out, _ = run(capsys, "show", "3_1 mirror")
     assert out.startswith("3_1*")
 

@@ -140,7 +140,22 @@ def test_link_is_not_in_table():
 
 
 def test_unknot_note():
-    """Trivial invariants come with the note that they do not prove the unknot."""
+    """The basis of an unknot verdict is visible: a kink simplifies to the trivial diagram
+    (Reidemeister I; common practice), which proves it; a diagram that keeps crossings gets
+    the unknot only as evidence from its invariants."""
     r = identify(Diagram([(1, 1, 2, 2)]), table=TABLE)
-    assert r.name == "0_1"
+    assert r.name == "0_1" and r.candidates[0].basis == "trivial diagram"
+    assert r.notes[0].startswith("proof:") and "proven" in r.to_text()
+    assert r.to_dict()["candidates"][0]["basis"] == "trivial diagram"
+
+
+def test_unknot_from_invariants_only_is_evidence(monkeypatch):
+    """When simplification leaves crossings, V = 1 is evidence only, and the result says so."""
+    import knotsift.simplify
+
+    monkeypatch.setattr(knotsift.simplify, "simplify", lambda d: d)
+    r = identify(Diagram([(1, 1, 2, 2)]), table=TABLE)
+    assert r.name == "0_1" and r.candidates[0].basis == "invariants"
+    assert r.notes[0].startswith("evidence only")
     assert any("not proven" in n for n in r.notes)
+    assert "evidence, not proof" in r.to_text()

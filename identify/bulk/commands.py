@@ -41,7 +41,10 @@ def _cmd_classify(args) -> int:
     options = ClassifyOptions(notation=args.notation, closed=False if args.open else None,
                               closure=args.closure, n_closures=args.closures, seed=args.seed,
                               core=args.core, beads_per_chain=args.beads_per_chain,
-                              table=args.table, **_budget_options(args))
+                              table=args.table, topology=args.topology, select=args.select,
+                              chains_by=args.chains_by,
+                              box=tuple(args.box) if args.box else None,
+                              **_budget_options(args))
     try:
         report = classify(args.input, args.out, fmt=args.format, codes_column=args.codes_column,
                           label_column=args.label_column, options=options,
@@ -120,7 +123,7 @@ def register(sub, notation_choices) -> None:
                                         "table (parallel, resumable)")
     c.add_argument("input", nargs="+",
                    help="code tables (.csv/.tsv with a code column, or one code per line) "
-                        "or trajectories (.xyz, .pdb, .csv, .npy)")
+                        "or trajectories (.xyz, .pdb, .csv, .npy, and MD formats)")
     c.add_argument("--format", choices=FORMATS, default="auto",
                    help="how to read the inputs (default: from the extension and header)")
     c.add_argument("--codes-column", default="code",
@@ -144,6 +147,9 @@ def register(sub, notation_choices) -> None:
                    help="also find the knotted core of each knotted chain (slower)")
     c.add_argument("--beads-per-chain", type=int, default=None,
                    help="split each XYZ frame into chains of this many beads (a melt)")
+    from ..curves.commands import add_reader_options  # MD trajectories: --topology, --select
+
+    add_reader_options(c)
     c.add_argument("-o", "--out", default="results.sqlite",
                    help="results.sqlite (the default: SQLite, embedded), results.csv, "
                         "results.parquet or a database URL (postgresql://user@host/db); run "

@@ -85,8 +85,9 @@ def plot_spectrum(spec, path, *, top: int = 12, title: str | None = None,
     -------
     pathlib.Path
     """
-    import matplotlib
+    from ..extras import require
 
+    matplotlib = require("matplotlib", "plots", "drawing figures")
     matplotlib.use("Agg", force=False)
     from matplotlib import rc_context
     from matplotlib.figure import Figure
@@ -157,8 +158,9 @@ def plot_unknot_probability(fit: dict, path, *, title: str | None = None,
     -------
     pathlib.Path
     """
-    import matplotlib
+    from ..extras import require
 
+    matplotlib = require("matplotlib", "plots", "drawing figures")
     matplotlib.use("Agg", force=False)
     import numpy as np
     from matplotlib import rc_context

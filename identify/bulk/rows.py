@@ -90,6 +90,9 @@ class ClassifyOptions:
         A reference table file instead of the shipped one.
     jones, jones_memory, jones_seconds, wall_seconds
         The cost budget of each item (:class:`knotsift.budget.Budget`).
+    topology, select, chains_by, box
+        MD trajectories: as for :func:`knotsift.curves.formats.read_frames`.
+        Stored with the output only when set.
     """
 
     notation: str | None = None
@@ -104,9 +107,26 @@ class ClassifyOptions:
     jones_memory: int = 1 << 30
     jones_seconds: float = 20.0
     wall_seconds: float | None = 60.0
+    topology: str | None = None
+    select: str | None = None
+    chains_by: str = "auto"
+    box: tuple | None = None
+
+    def reader_options(self) -> dict:
+        """The MD reader options that are set, as keywords of read_frames."""
+        out = {k: getattr(self, k) for k in ("topology", "select", "box")
+               if getattr(self, k) is not None}
+        if self.chains_by != "auto":
+            out["chains_by"] = self.chains_by
+        return out
 
     def to_dict(self) -> dict:
-        return asdict(self)
+        d = {k: v for k, v in asdict(self).items()
+             if k not in ("topology", "select", "chains_by", "box")}
+        d.update(self.reader_options())
+        if "box" in d:
+            d["box"] = [float(v) for v in d["box"]]
+        return d
 
     def budget(self):
         """The :class:`knotsift.budget.Budget` of each item."""

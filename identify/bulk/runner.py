@@ -25,7 +25,8 @@ from .sources import iter_items
 
 __all__ = ["classify", "RunReport", "chunked", "default_workers"]
 
-STATUS_ORDER = ("identified", "ambiguous", "not in table", "undetermined", "error")
+STATUS_ORDER = ("identified", "ambiguous", "not in table", "undetermined",
+                "depends on missing segment", "error")
 
 
 @dataclass
@@ -55,7 +56,8 @@ class RunReport:
                 "rate": round(self.written / self.seconds, 3) if self.seconds > 0 else None}
 
     def text(self) -> str:
-        counts = ", ".join(f"{self.counts.get(s, 0)} {s}" for s in STATUS_ORDER)
+        counts = ", ".join(f"{self.counts.get(s, 0)} {s}" for s in STATUS_ORDER
+                           if s != "depends on missing segment" or self.counts.get(s))
         rate = f" ({self.written / self.seconds:.1f}/s)" if self.seconds > 0 and self.written \
             else ""
         lines = [f"classified {self.total} items: {counts}",
@@ -136,6 +138,9 @@ def _run_processes(chunks, options, write, workers: int):
 
 
 def _run_dask(chunks, options, write, workers: int, address: str):
+    from ..extras import require
+
+    require("dask.distributed", "bulk", "running on Dask (--dask)")
     from dask.distributed import Client, LocalCluster, as_completed
 
     cluster = None
@@ -220,7 +225,8 @@ def classify(inputs: Iterable[str | os.PathLike], out: str | os.PathLike, *,
         raise KnotsiftError(f"workers must be at least 1, got {workers}", value=workers)
     open_table(options.table)   # fail before any work when the table is missing
     read = dict(fmt=fmt, codes_column=codes_column, label_column=label_column,
-                closed=options.closed, beads_per_chain=options.beads_per_chain)
+                closed=options.closed, beads_per_chain=options.beads_per_chain,
+                reader=options.reader_options())
     items = iter_items(inputs, **read)
     sink = open_sink(out, table_name)
     sink.prepare(options.to_dict())

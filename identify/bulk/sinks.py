@@ -88,6 +88,10 @@ class SQLSink:
 
         if url.startswith(("postgresql://", "postgres://")):
             url = "postgresql+psycopg://" + url.split("://", 1)[1]
+        if url.startswith("postgresql+psycopg://"):
+            from ..extras import require
+
+            require("psycopg", "bulk", "writing to PostgreSQL")
         self.url = url
         self.where = sa.engine.make_url(url).render_as_string(hide_password=True)
         try:
@@ -383,6 +387,9 @@ def open_sink(out: str | os.PathLike, table: str = DEFAULT_TABLE):
     if ext == ".csv":
         return CSVSink(path)
     if ext == ".parquet":
+        from ..extras import require
+
+        require("pyarrow", "bulk", "writing Parquet outputs")
         return ParquetSink(path)
     if ext in (".sqlite", ".sqlite3", ".db"):
         path.parent.mkdir(parents=True, exist_ok=True)

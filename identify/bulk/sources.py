@@ -33,8 +33,9 @@ from .resume import item_key
 
 __all__ = ["Item", "FORMATS", "CURVE_FORMATS", "detect_format", "iter_items"]
 
-#: Trajectory formats, read by knotsift.curves.
-CURVE_FORMATS = ("xyz", "pdb", "csv", "npy")
+#: Trajectory formats, read by knotsift.curves (the MD ones through MDAnalysis).
+CURVE_FORMATS = ("xyz", "pdb", "csv", "npy", "lammps-data", "lammps-dump", "dcd", "xtc",
+                 "trr", "gro", "gsd", "netcdf", "mmcif")
 #: ``codes`` is a table or list of diagram codes; ``auto`` decides per file (see detect_format).
 FORMATS = ("auto", "codes") + CURVE_FORMATS
 
@@ -121,6 +122,11 @@ def detect_format(path: str | os.PathLike, codes_column: str = "code") -> str:
     ext = p.suffix.lower()
     if ext in _CURVE_EXTENSIONS:
         return _CURVE_EXTENSIONS[ext]
+    from ..curves.universe import md_format_of
+
+    md = md_format_of(p)
+    if md is not None:
+        return md
     try:
         first = _first_line(p)
     except OSError as exc:
@@ -193,11 +199,17 @@ def _curve_reader():
 
 
 def _curve_items(path: Path, source: str, fmt: str, closed: bool | None,
-                 beads_per_chain: int | None) -> Iterator[Item]:
+                 beads_per_chain: int | None, reader: dict | None = None) -> Iterator[Item]:
     """One item per frame from knotsift.curves' streaming reader; bad frames as error items."""
     read_frames = _curve_reader()
     extra = {"beads_per_chain": beads_per_chain} if beads_per_chain and fmt == "xyz" else {}
-    frames = read_frames(path, format=fmt, closed=closed, errors="yield", **extra)
+    try:
+        frames = read_frames(path, format=fmt, closed=closed, errors="yield", **extra,
+                             **(reader or {}))
+    except KnotsiftError as exc:  # the file cannot be opened (topology, selection, extra)
+        yield Item(item_key(source, -1, 0), source, -1, 0, "frame", None,
+                   error=f"{source}: cannot read: {exc}")
+        return
     while True:
         try:
             frame = next(frames)
@@ -220,8 +232,8 @@ def _curve_items(path: Path, source: str, fmt: str, closed: bool | None,
 
 def iter_items(inputs: Iterable[str | os.PathLike], fmt: str = "auto", *,
                codes_column: str = "code", label_column: str = "label",
-               closed: bool | None = None, beads_per_chain: int | None = None
-               ) -> Iterator[Item]:
+               closed: bool | None = None, beads_per_chain: int | None = None,
+               reader: dict | None = None) -> Iterator[Item]:
     """Every item of every input file, lazily, in file order.
 
     Parameters
@@ -238,6 +250,9 @@ def iter_items(inputs: Iterable[str | os.PathLike], fmt: str = "auto", *,
         (PDB open, the others rings; see knotsift.curves.formats).
     beads_per_chain : int, optional
         Split each XYZ frame into chains of this many beads.
+    reader : dict, optional
+        Keywords of :func:`knotsift.curves.formats.read_frames` for trajectories
+        (``topology``, ``select``, ``chains_by``, ``box``).
 
     Returns
     -------
@@ -267,15 +282,15 @@ def iter_items(inputs: Iterable[str | os.PathLike], fmt: str = "auto", *,
     plan = [(p, fmt if fmt != "auto" else detect_format(p, codes_column)) for p in paths]
     if any(used != "codes" for _, used in plan):
         _curve_reader()  # a missing 3D reader is reported now, not half-way through a run
-    return _items(plan, codes_column, label_column, closed, beads_per_chain)
+    return _items(plan, codes_column, label_column, closed, beads_per_chain, reader)
 
 
-def _items(plan, codes_column: str, label_column: str, closed, beads_per_chain
+def _items(plan, codes_column: str, label_column: str, closed, beads_per_chain, reader=None
            ) -> Iterator[Item]:
     for path, used in plan:
         source = os.path.normpath(str(path))
         if used == "codes":
             yield from _code_items(path, source, codes_column, label_column)
         else:
-            yield from _curve_items(path, source, used, closed, beads_per_chain)
+            yield from _curve_items(path, source, used, closed, beads_per_chain, reader)
 

@@ -9,7 +9,10 @@ import argparse
 
 __all__ = ["register", "identify_coordinate_files"]
 
-FORMAT_CHOICES = ("xyz", "pdb", "csv", "npy")
+#: knotsift.curves.formats.FORMATS (kept here so the CLI starts fast).
+FORMAT_CHOICES = ("xyz", "pdb", "csv", "npy", "lammps-data", "lammps-dump", "dcd", "xtc",
+                  "trr", "gro", "gsd", "netcdf", "mmcif")
+CHAINS_BY_CHOICES = ("auto", "molecules", "fragments", "segments", "one")
 CLOSURE_CHOICES = ("direct", "far", "stochastic")
 
 
@@ -21,6 +24,43 @@ def _positive(text: str) -> int:
     if n < 1:
         raise argparse.ArgumentTypeError(f"expected a positive integer, got {n}")
     return n
+
+
+def _length(text: str) -> float:
+    try:
+        return float(text)
+    except ValueError:
+        raise argparse.ArgumentTypeError(f"expected a number, got {text!r}") from None
+
+
+def add_reader_options(parser, box: bool = True) -> None:
+    """The MD reader options shared by ``curve``, ``identify`` and ``classify``."""
+    parser.add_argument("--topology", metavar="FILE",
+                        help="topology of an MD trajectory (PSF, PDB, GRO, TPR, PRMTOP, LAMMPS "
+                             "data); needed by DCD, XTC, TRR and NetCDF")
+    parser.add_argument("--select", metavar="SELECTION",
+                        help="atoms to take, in MDAnalysis's selection language, e.g. "
+                             "'name CA' or 'type 1' (default: protein C-alphas if any, else "
+                             "all atoms)")
+    parser.add_argument("--chains-by", choices=CHAINS_BY_CHOICES, default="auto",
+                        help="MD formats: chains are the topology's molecules, bonded "
+                             "fragments, segments, or one chain (default auto)")
+    if box:
+        parser.add_argument("--box", nargs=3, type=_length, metavar=("LX", "LY", "LZ"),
+                            help="periodic box the chains are wrapped into (the coordinates' "
+                                 "units; Angstrom for MD formats); replaces the file's box")
+
+
+def reader_options(args) -> dict:
+    """The read_frames keywords given on the command line (only those set)."""
+    out = {}
+    for name in ("topology", "select", "box"):
+        value = getattr(args, name, None)
+        if value is not None:
+            out[name] = value
+    if getattr(args, "chains_by", "auto") != "auto":
+        out["chains_by"] = args.chains_by
+    return out
 
 
 def _cmd_curve(args) -> int:
@@ -47,9 +87,9 @@ def _cmd_curve(args) -> int:
         with budget_scope(budget_from_args(args)):
             code = report_file(path, format=args.format, closed=args.closed, frames=frames,
                                closure=args.closure, n_closures=args.closures,
-                               seed=args.seed,
-                               localise=args.core, table=table, as_json=args.json,
-                               progress=None if not args.quiet else False)
+                               seed=args.seed, localise=args.core, table=table,
+                               as_json=args.json, progress=None if not args.quiet else False,
+                               brief=args.brief, **reader_options(args))
         status = max(status, code)
     return status
 
@@ -57,7 +97,8 @@ def _cmd_curve(args) -> int:
 def register(sub) -> None:
     """Add the ``curve`` subcommand to the ``knotsift`` parser's subparsers."""
     c = sub.add_parser(
-        "curve", help="identify knots in 3D coordinates (XYZ, PDB, CSV/TSV, NumPy)",
+        "curve", help="identify knots in 3D coordinates (XYZ, PDB, CSV/TSV, NumPy, MD "
+                      "trajectories)",
         description="Identify the knot type of every chain in every frame of a coordinate "
                     "file. Rings are reduced (KMT) and projected; open chains are closed "
                     "first. Units do not matter.")
@@ -84,6 +125,9 @@ def register(sub) -> None:
                    help="which frames to read, e.g. 0:100, 10:, ::5 or 7 (from 0)")
     c.add_argument("--json", action="store_true",
                    help="machine-readable output (see README, 'Knots in 3D coordinates')")
+    c.add_argument("--brief", action="store_true",
+                   help="one line per chain: where, status, answer (tab-separated)")
+    add_reader_options(c)
     c.add_argument("--quiet", action="store_true", help="no progress line")
     c.add_argument("--table", help="use this reference table file instead of the shipped one")
     from ..budget import add_budget_arguments
@@ -114,5 +158,7 @@ def identify_coordinate_files(args) -> int | None:
     for path in codes:
         with budget_scope(budget_from_args(args)):
             status = max(status, report_file(path, table=table,
-                                             as_json=getattr(args, "json", False)))
+                                             as_json=getattr(args, "json", False),
+                                             brief=getattr(args, "brief", False),
+                                             **reader_options(args)))
     return status

@@ -9,6 +9,17 @@ csv     ``.csv``, ``.tsv``, ``.tab``, ``.txt``      rings
 npy     ``.npy``, ``.npz``                          rings
 ======  ==========================================  =================
 
+Molecular-dynamics formats are read through MDAnalysis (the ``md`` extra, see
+:mod:`knotsift.curves.universe`): ``lammps-data`` (``.data``, ``.lmp``),
+``lammps-dump`` (``.lammpstrj``, ``.dump``), ``dcd``, ``xtc``, ``trr``
+(``--topology`` needed), ``gro``, ``gsd``, ``netcdf`` (``.nc``, ``.ncdf``,
+``--topology`` needed) and ``mmcif`` (``.cif``, ``.mmcif``, gzipped too).
+Their chains come from the topology, rings where its bonds close a cycle.
+A PDB file given a topology or a selection is read through MDAnalysis too.
+
+A periodic box (the file's, or ``box=``) makes every chain be unwrapped
+before it is identified (:mod:`knotsift.curves.periodic`).
+
 Units do not matter to topology: coordinates in Angstrom, nanometres or
 lattice units give the same answer.
 """
@@ -23,7 +34,10 @@ from .frame import Frame, FrameFailure
 
 __all__ = ["FORMATS", "SUFFIXES", "format_of", "read_frames", "parse_frames"]
 
-FORMATS = ("xyz", "pdb", "csv", "npy")
+PLAIN_FORMATS = ("xyz", "pdb", "csv", "npy")
+#: Every format name; the MD ones are read through MDAnalysis (knotsift.curves.universe).
+FORMATS = PLAIN_FORMATS + ("lammps-data", "lammps-dump", "dcd", "xtc", "trr", "gro", "gsd",
+                           "netcdf", "mmcif")
 SUFFIXES = {
     ".xyz": "xyz",
     ".pdb": "pdb",
@@ -48,6 +62,11 @@ def format_of(path: str | Path, format: str | None = None) -> str:
     suffix = Path(path).suffix.lower()
     if suffix in SUFFIXES:
         return SUFFIXES[suffix]
+    from .universe import md_format_of
+
+    md = md_format_of(path)
+    if md is not None:
+        return md
     raise CurveError(f"cannot tell the format of {path} from its suffix {suffix or '(none)'!r}; "
                      f"name it ({', '.join(FORMATS)})", value=str(path))
 
@@ -71,21 +90,32 @@ def parse_frames(text: str) -> slice:
 
 
 def read_frames(path: str | Path, format: str | None = None, closed: bool | None = None,
-                frames: slice | str | None = None, errors: str = "raise", **options
+                frames: slice | str | None = None, errors: str = "raise", *,
+                topology: str | Path | None = None, select: str | None = None,
+                chains_by: str = "auto", box=None, **options
                 ) -> Iterator[Frame | FrameFailure]:
     """Frames of a coordinate file, one at a time, whatever its format.
 
     Parameters
     ----------
     path : path-like
-    format : {"xyz", "pdb", "csv", "npy"}, optional
-        Default: from the suffix (see the module docstring).
+    format : str, optional
+        One of :data:`FORMATS`; default: from the suffix (see the module docstring).
     closed : bool, optional
         Rings or open chains; default per format (PDB open, the others rings).
     frames : slice or str, optional
         ``slice(0, 100)`` or ``"0:100"``.
     errors : {"raise", "yield"}
         Raise on a bad frame, or yield a :class:`FrameFailure` and go on.
+    topology : path-like, optional
+        MD formats: the topology file (PSF, PDB, GRO, TPR, PRMTOP, LAMMPS data).
+    select : str, optional
+        MD formats (and PDB): atoms to take, in MDAnalysis's selection language.
+    chains_by : str
+        MD formats: ``auto``, ``molecules``, ``fragments``, ``segments`` or ``one``.
+    box : sequence of 3 or 6 numbers, optional
+        A periodic box ``Lx Ly Lz`` (or with angles) in the coordinates' units;
+        every chain is unwrapped in it.  MD formats use the file's box by default.
     **options
         Passed to the reader (``beads_per_chain`` for XYZ, ``break_distance``
         for PDB, ``key`` for NPZ, ``delimiter`` for tables).
@@ -98,8 +128,36 @@ def read_frames(path: str | Path, format: str | None = None, closed: bool | None
     fmt = format_of(path, format)
     if isinstance(frames, str):
         frames = parse_frames(frames)
+    if fmt not in PLAIN_FORMATS or (fmt == "pdb" and (topology is not None or select)):
+        from .universe import read_universe
+
+        return read_universe(path, fmt, topology=topology, select=select,
+                             chains_by=chains_by, closed=closed, frames=frames, errors=errors,
+                             box=box, **options)
+    if topology is not None or select:
+        raise CurveError(f"--topology and --select apply to the MD formats read through "
+                         f"MDAnalysis (and PDB), not to {fmt}", where=str(path))
     if closed is None:
         closed = DEFAULT_CLOSED[fmt]
+    if fmt == "pdb" and box is not None:
+        options = dict(options, box=box)  # the PDB reader measures breaks by minimum image
+        box = None
+    stream = _plain(path, fmt, closed, frames, errors, options)
+    if box is None:
+        return stream
+    from .periodic import check_box
+
+    return _with_box(stream, check_box(box, where=str(path)))
+
+
+def _with_box(stream, box) -> Iterator[Frame | FrameFailure]:
+    for fr in stream:
+        if isinstance(fr, Frame):
+            fr.box = box
+        yield fr
+
+
+def _plain(path, fmt: str, closed: bool, frames, errors: str, options: dict):
     if fmt == "xyz":
         from .xyz import read_xyz
 

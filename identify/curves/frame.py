@@ -64,6 +64,15 @@ class Frame:
         Problems met while reading that did not stop it (chain breaks, repeated beads).
     comment : str
         The frame's title or comment line, if the format has one.
+    box : (6,) float array, optional
+        The periodic box ``[lx, ly, lz, alpha, beta, gamma]`` (lengths in the
+        file's units, angles in degrees) when the chains were wrapped into
+        one; each chain is then unwrapped before it is identified (see
+        :mod:`knotsift.curves.periodic`).
+    gaps : dict, optional
+        For chains with missing segments (protein chain breaks): chain id ->
+        list of ``(bead, distance)``, a gap between ``bead`` and ``bead + 1``
+        (see :mod:`knotsift.curves.gaps`).
     """
 
     source: str
@@ -71,6 +80,8 @@ class Frame:
     chains: list[Chain]
     warnings: list[str] = field(default_factory=list)
     comment: str = ""
+    box: np.ndarray | None = None
+    gaps: dict[str, list[tuple[int, float]]] = field(default_factory=dict)
 
     @property
     def where(self) -> str:

@@ -5,8 +5,10 @@ Only ``ATOM`` records named ``CA`` are read (``HETATM`` too with
 C-alpha to C-alpha distance above ``break_distance`` (default 4.2 Angstrom;
 consecutive C-alphas of a peptide are about 3.8 Angstrom apart, common
 practice) is a chain break: it is reported as a warning naming the chain and
-residues, and the gap is bridged by a straight segment.  Chains are open
-(proteins) unless ``closed=True``.
+residues, and recorded in the frame's ``gaps``: the chain is identified both
+with the gap bridged by a straight segment and as separate pieces (see
+:mod:`knotsift.curves.gaps`).  Chains are open (proteins) unless
+``closed=True``.
 """
 
 from __future__ import annotations
@@ -26,8 +28,8 @@ BREAK_DISTANCE = 4.2
 
 
 def read_pdb(path: str | Path, closed: bool = False, break_distance: float = BREAK_DISTANCE,
-             frames: slice | None = None, hetatm: bool = False, errors: str = "raise"
-             ) -> Iterator[Frame | FrameFailure]:
+             frames: slice | None = None, hetatm: bool = False, errors: str = "raise",
+             box=None) -> Iterator[Frame | FrameFailure]:
     """Frames (models) of a PDB file, each with the C-alpha trace of every chain.
 
     Parameters
@@ -42,6 +44,10 @@ def read_pdb(path: str | Path, closed: bool = False, break_distance: float = BRE
     hetatm : bool
         Also read ``HETATM`` C-alphas (modified residues).
     errors : {"raise", "yield"}
+    box : sequence of 3 or 6 numbers, optional
+        A periodic box the chains are wrapped into (not read from CRYST1,
+        which is a crystal's cell): C-alpha distances are then measured by
+        minimum image, and each chain is unwrapped before identification.
 
     Raises
     ------
@@ -55,7 +61,11 @@ def read_pdb(path: str | Path, closed: bool = False, break_distance: float = BRE
         raise ValueError(f"errors must be 'raise' or 'yield', got {errors!r}")
     if not path.is_file():
         raise CurveError(f"no such file: {path}", value=str(path))
-    return _models(path, closed, break_distance, frames or slice(None), hetatm, errors)
+    if box is not None:
+        from .periodic import check_box
+
+        box = check_box(box, where=str(path))
+    return _models(path, closed, break_distance, frames or slice(None), hetatm, errors, box)
 
 
 def _wanted(sel: slice, k: int) -> bool:
@@ -74,8 +84,8 @@ class _Model:
         self.error: CurveError | None = None
 
 
-def _models(path: Path, closed: bool, brk: float, sel: slice, hetatm: bool, errors: str
-            ) -> Iterator[Frame | FrameFailure]:
+def _models(path: Path, closed: bool, brk: float, sel: slice, hetatm: bool, errors: str,
+            box=None) -> Iterator[Frame | FrameFailure]:
     src = str(path)
     records = ("ATOM  ", "HETATM") if hetatm else ("ATOM  ",)
     index = 0
@@ -90,7 +100,7 @@ def _models(path: Path, closed: bool, brk: float, sel: slice, hetatm: bool, erro
             return FrameFailure(src, m.index, CurveError(
                 "no C-alpha atoms (ATOM records named CA) in this model",
                 where=f"{src}, line {m.line}, frame {m.index}"))
-        return _frame(src, m, closed, brk)
+        return _frame(src, m, closed, brk, box)
 
     def emit(m: _Model):
         out = finish(m)
@@ -200,21 +210,30 @@ def _atom(m: _Model, line: str, lineno: int, src: str) -> None:
     m.chains.setdefault(chain, []).append((resseq, icode, xyz, lineno))
 
 
-def _frame(src: str, m: _Model, closed: bool, brk: float) -> Frame:
-    chains, warnings = [], []
+def _frame(src: str, m: _Model, closed: bool, brk: float, box=None) -> Frame:
+    chains, warnings, gaps = [], [], {}
     for cid, atoms in m.chains.items():
         xyz = np.array([a[2] for a in atoms])
         if len(xyz) > 1:
-            d = np.linalg.norm(np.diff(xyz, axis=0), axis=1)
-            for k in np.flatnonzero(d > brk):
+            steps = np.diff(xyz, axis=0)
+            if box is not None:  # a bond across the periodic box is not a break
+                from .periodic import minimum_image
+
+                steps = minimum_image(steps, box)
+            d = np.linalg.norm(steps, axis=1)
+            far = np.flatnonzero(d > brk)
+            if far.size and not closed:
+                gaps[cid] = [(int(k), float(d[k])) for k in far]
+            for k in far:
                 r1 = f"{atoms[k][0]}{atoms[k][1]}"
                 r2 = f"{atoms[k + 1][0]}{atoms[k + 1][1]}"
                 warnings.append(
                     f"{src}, frame {m.index}, chain {cid}: chain break between residues {r1} "
                     f"and {r2} (beads {k} and {k + 1}, CA-CA {d[k]:.1f} A > {brk:g} A, line "
-                    f"{atoms[k + 1][3]}); the gap is bridged by a straight segment")
+                    f"{atoms[k + 1][3]}); the type is computed with the gap bridged by a "
+                    "straight segment and with the pieces apart")
         chains.append(Chain(cid, xyz, closed))
-    return Frame(src, m.index, chains, warnings)
+    return Frame(src, m.index, chains, warnings, box=box, gaps=gaps)
 
 
 def write_pdb(path: str | Path, frames: Iterable, chain_ids: Iterable[str] | None = None

@@ -17,6 +17,7 @@ from typing import Iterable, Iterator
 
 import numpy as np
 
+from ..display import FrameValues
 from ..errors import CurveError, KnotsiftError
 from ..result import IdentifyResult
 from .closure import CLOSURES, DEFAULT_CLOSURES, closure_spectrum
@@ -39,8 +40,12 @@ __all__ = [
 
 #: Statuses of a curve result: those of IdentifyResult, and "undetermined"
 #: when no knot type holds a strict majority of the closures.
-CURVE_STATUSES = ("identified", "ambiguous", "not in table", "undetermined", "too complex",
-                  "error")
+#: Statuses of a curve result: those of IdentifyResult, "undetermined" when no
+#: knot type holds a strict majority of the closures, "depends on missing
+#: segment" when a chain with gaps changes type with its bridges
+#: (knotsift.curves.gaps), and "too complex" when its wall-time budget ran out.
+CURVE_STATUSES = ("identified", "ambiguous", "not in table", "undetermined",
+                  "depends on missing segment", "too complex", "error")
 CURVE_NOTATION = "3D coordinates"
 
 UNKNOT_NOTE = ("the unknot here means the curve reduced to a diagram whose invariants are "
@@ -71,6 +76,11 @@ class CurveResult(IdentifyResult):
         (projection directions rejected), ``seed``, and for stochastic
         closure ``closures``, ``closures_redrawn``, ``closures_reused``.
     warnings : list of str
+    gaps : dict or None
+        For an open chain with gaps: ``gaps`` (``{beads, distance}`` each),
+        ``bridged`` (the answer with straight bridges), ``pieces``
+        (``{start, end, beads, answer}`` each) and ``agree`` (see
+        :mod:`knotsift.curves.gaps`).
     """
 
     frame: int | None = None
@@ -82,6 +92,7 @@ class CurveResult(IdentifyResult):
     core: dict | None = None
     geometry: dict = field(default_factory=dict)
     warnings: list[str] = field(default_factory=list)
+    gaps: dict | None = None
 
     def to_dict(self) -> dict:
         d = super().to_dict()
@@ -95,6 +106,7 @@ class CurveResult(IdentifyResult):
             "core": self.core,
             "geometry": dict(self.geometry),
             "warnings": list(self.warnings),
+            "gaps": self.gaps,
         }
         return d
 
@@ -105,6 +117,11 @@ class CurveResult(IdentifyResult):
             return f"{head}: error: {self.error}"
         if self.status == "undetermined":
             lines = [f"{head}: undetermined (no knot type holds a majority of the closures)"]
+        elif self.status == "depends on missing segment" and self.gaps:
+            pieces = ", ".join(p["answer"] for p in self.gaps["pieces"])
+            lines = [f"{head}: depends on the missing segment: {self.gaps['bridged']} with "
+                     f"straight bridges; pieces apart: {pieces}"]
+            lines += [f"  note: {n}" for n in self.notes]
         else:
             body = IdentifyResult.to_text(self)
             first, *rest = body.split("\n")
@@ -131,7 +148,7 @@ class CurveResult(IdentifyResult):
 
 
 @dataclass
-class FrameResult:
+class FrameResult(FrameValues):
     """Every chain of one frame, and the linking numbers of its rings.
 
     Attributes
@@ -306,11 +323,24 @@ def _chain_where(source: str, frame: int | None, chain_id: str) -> str:
 
 
 def _identify_chain(chain: Chain, source: str, frame: int | None, closure: str,
-                    n_closures: int, seed: int, localise: bool, table,
-                    budget=None) -> CurveResult:
+                    n_closures: int, seed: int, localise: bool, table, box=None,
+                    gaps: list | None = None, budget=None) -> CurveResult:
     from ..budget import TooComplex, item_budget
 
     label = _chain_where(source, frame, chain.id)
+    if box is not None:  # wrapped into a periodic box: unwrap first (knotsift.curves.periodic)
+        from .periodic import unwrap_chain
+
+        chain = Chain(chain.id, unwrap_chain(chain.coords, box, chain.closed, where=label),
+                      chain.closed)
+    if gaps and not chain.closed:  # the bridged chain and its pieces (knotsift.curves.gaps)
+        from .gaps import weigh_gaps
+
+        result = _identify_chain(chain, source, frame, closure, n_closures, seed, localise,
+                                 table, budget=budget)
+        weigh_gaps(result, chain, gaps, lambda piece: _identify_piece(
+            piece, source, frame, closure, n_closures, seed, table))
+        return result
     where = ", ".join(p for p in (source, f"frame {frame}" if frame is not None else "") if p)
     with item_budget(budget):  # one chain is one item: its wall time starts here
         prep = prepare_chains([chain], where=where)
@@ -331,9 +361,17 @@ def _identify_chain(chain: Chain, source: str, frame: int | None, closure: str,
     return result
 
 
+def _identify_piece(piece: Chain, source: str, frame: int | None, closure: str,
+                    n_closures: int, seed: int, table) -> CurveResult:
+    try:
+        return _identify_chain(piece, source, frame, closure, n_closures, seed, False, table)
+    except CurveError as exc:
+        return CurveResult(status="error", error=str(exc), chain=piece.id, closed=False)
+
+
 def identify_curve(coords, closed: bool = True, closure: str = "stochastic",
                    n_closures: int = DEFAULT_CLOSURES, seed: int = 0, localise: bool = False,
-                   table=None, source: str = "", budget=None) -> CurveResult:
+                   table=None, source: str = "", box=None, budget=None) -> CurveResult:
     """Identify the knot formed by one chain of 3D coordinates.
 
     Parameters
@@ -359,6 +397,9 @@ def identify_curve(coords, closed: bool = True, closure: str = "stochastic",
     budget : knotsift.budget.Budget, optional
         Cost limits of this chain (Jones estimate, wall time); default the
         enclosing :func:`knotsift.budget.item_budget` or the defaults.
+    box : sequence of 3 or 6 numbers, optional
+        A periodic box the chain is wrapped into (default: a Frame's own
+        box); the chain is unwrapped first (see knotsift.curves.periodic).
 
     Returns
     -------
@@ -401,12 +442,13 @@ def identify_curve(coords, closed: bool = True, closure: str = "stochastic",
         source = source or coords.source
         frame_index = coords.index
         chain = coords.chains[0]
+        box = box if box is not None else coords.box
     elif isinstance(coords, Chain):
         chain = coords
     else:
         chain = as_chain(coords, closed)
     return _identify_chain(chain, source, frame_index, closure, n_closures, seed, localise,
-                           table, budget)
+                           table, box=box, budget=budget)
 
 
 def _linking(frame: Frame, rings: list[Chain], seed: int) -> tuple[list[dict], list[str]]:
@@ -464,7 +506,8 @@ def identify_frame(frame: Frame, closure: str = "stochastic",
     for chain in frame.chains:
         try:
             r = _identify_chain(chain, frame.source, frame.index, closure, n_closures, seed,
-                                localise, table, budget)
+                                localise, table, box=getattr(frame, "box", None),
+                                gaps=getattr(frame, "gaps", {}).get(chain.id), budget=budget)
             good.append(chain)
         except CurveError as exc:
             r = CurveResult(status="error", error=str(exc),
@@ -474,6 +517,14 @@ def identify_frame(frame: Frame, closure: str = "stochastic",
                             beads=len(chain.coords), closure=None if chain.closed else closure)
         out.chains.append(r)
     rings = [c for c in good if c.closed]
+    box = getattr(frame, "box", None)
+    if linking and len(rings) >= 2 and box is not None:
+        from .periodic import unwrap_chain
+
+        rings = [Chain(c.id, unwrap_chain(c.coords, box, True), True) for c in rings]
+        out.warnings.append("linking numbers are those of the rings as unwrapped from their "
+                            "first beads; in a periodic box a ring also meets the periodic "
+                            "images of the others, which are not counted")
     if linking and len(rings) >= 2:
         try:
             out.linking, notes = _linking(frame, rings, seed)

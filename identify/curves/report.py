@@ -17,21 +17,28 @@ from typing import TextIO
 __all__ = ["report_file", "JSON_SCHEMA_VERSION", "COORDINATE_SUFFIXES"]
 
 JSON_SCHEMA_VERSION = 1
-#: Suffixes that ``knotsift identify FILE`` treats as coordinates (not code lists).
+#: Suffixes that ``knotsift identify FILE`` treats as coordinates (not code lists),
+#: besides the MD formats' (knotsift.curves.universe.MD_SUFFIXES).
 COORDINATE_SUFFIXES = (".xyz", ".pdb", ".ent", ".npy", ".npz")
 
 
 def is_coordinate_file(text: str) -> bool:
-    """True when ``text`` names an existing file with a coordinate suffix."""
+    """True when ``text`` names an existing file with a coordinate or MD suffix."""
     p = Path(text)
-    return p.suffix.lower() in COORDINATE_SUFFIXES and p.is_file()
+    if not p.is_file():  # a code, not a file: decided without importing numpy
+        return False
+    if p.suffix.lower() in COORDINATE_SUFFIXES:
+        return True
+    from .universe import md_format_of
+
+    return md_format_of(p) is not None
 
 
 def report_file(path: str, *, format: str | None = None, closed: bool | None = None,
                 frames=None, closure: str = "stochastic", n_closures: int = 100,
                 seed: int = 0, localise: bool = False, table=None, as_json: bool = False,
                 progress: bool | None = None, out: TextIO | None = None,
-                err: TextIO | None = None) -> int:
+                err: TextIO | None = None, brief: bool = False, **reader) -> int:
     """Identify every frame of a coordinate file and print the results.
 
     Parameters
@@ -44,6 +51,11 @@ def report_file(path: str, *, format: str | None = None, closed: bool | None = N
         per frame, ``summary``) instead of text.
     progress : bool, optional
         Show a progress line on standard error (default: when it is a terminal).
+    brief : bool
+        One line per chain (``file, frame, chain: status name``) instead of a block per frame.
+    **reader
+        Passed to :func:`knotsift.curves.formats.read_frames` (``topology``,
+        ``select``, ``chains_by``, ``box``, ``beads_per_chain``...).
 
     Returns
     -------
@@ -64,7 +76,7 @@ def report_file(path: str, *, format: str | None = None, closed: bool | None = N
     bar = Progress(None, "frames", stream=err, enabled=progress)
     results = identify_file(path, format=format, closed=closed, frames=frames,
                             closure=closure, n_closures=n_closures, seed=seed,
-                            localise=localise, table=table, progress=bar)
+                            localise=localise, table=table, progress=bar, **reader)
     counts: Counter[str] = Counter()
     names: Counter[str] = Counter()
     n_frames = failed_frames = 0
@@ -88,6 +100,11 @@ def report_file(path: str, *, format: str | None = None, closed: bool | None = N
                 names[c.name] += 1
         if as_json:
             out.write(("\n" if first else ",\n") + json.dumps(fr.to_dict()))
+        elif brief:
+            from ..brief import brief_lines
+
+            _clear(bar)
+            out.write("".join(line + "\n" for line in brief_lines(fr)))
         else:
             _clear(bar)
             out.write(fr.to_text() + "\n\n")
@@ -96,7 +113,8 @@ def report_file(path: str, *, format: str | None = None, closed: bool | None = N
     bar.close()
     summary = {"frames": n_frames, "frames_failed": failed_frames,
                "chains": {k: counts[k] for k in ("identified", "ambiguous", "not in table",
-                                                  "undetermined", "error")},
+                                                  "undetermined", "depends on missing segment",
+                                                  "error")},
                "types": dict(names.most_common())}
     if as_json:
         out.write(f'\n], "summary": {json.dumps(summary)}}}\n')

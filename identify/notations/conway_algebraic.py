@@ -31,7 +31,11 @@ Meaning (tangle operations of :mod:`knotsift.tangle`):
   of a run continue the chain, so ``(3,2)21`` is ``((3,2) 2) 1``.
 * ``-`` before a factor mirrors that factor only: ``-20`` is ``-(20)``,
   ``(3,2)-(21,2)`` is the product of ``(3,2)`` and ``-(21,2)``; ``-21`` is the
-  chain ``-2 -1`` (its mirror).
+  chain ``-2 -1`` (its mirror).  In a spaced run a minus written against an
+  entry is that entry's sign wherever it stands: ``-2 3`` is ``(-2) 3``, the
+  same as ``2 -3`` up to the mirror of the whole, and ``-1 -1 -1`` is the
+  chain of three ``-1`` (the left-handed trefoil).  A minus followed by a
+  space mirrors the run after it: ``- 2 3`` is ``-(2 3)``.
 * ``a,b,...,c`` is the ramification ``a0 + b0 + ... + c0``; ``3,3,2`` is the
   pretzel knot P(3, 3, 2).
 * Trailing signs add the tangle ``+1`` or ``-1`` per sign at the end of a
@@ -113,7 +117,8 @@ from ..tangle import (
     tangle_from_fraction,
 )
 
-__all__ = ["parse_conway_notation", "conway_tangle", "conway_vertex_tangles"]
+__all__ = ["parse_conway_notation", "conway_tangle", "conway_vertex_tangles",
+           "rational_chain"]
 
 _MINUS = "-\u2212"
 _SYMBOLS = {"(": "(", ")": ")", ",": ",", ".": ".", ":": ":", "*": "*", "+": "+"}
@@ -267,8 +272,20 @@ class _Parser:
             else:
                 return acc
 
+    def _run_continues(self, k: int) -> bool:
+        """Whether the token at offset ``k`` continues a spaced run (a spaced ``3`` or ``-3``)."""
+        tok = self.peek(k)
+        if tok.kind == "num":
+            return tok.space_before
+        return (tok.kind == "-" and tok.space_before and self.peek(k + 1).kind == "num"
+                and not self.peek(k + 1).space_before)
+
     def factor(self) -> _Slot:
         tok = self.peek()
+        if (tok.kind == "-" and self.peek(1).kind == "num" and not self.peek(1).space_before
+                and self._run_continues(2)):
+            self.take()  # '-2 3': the sign of the first entry of a spaced run, as in '3 -2'
+            return self.run(first_sign=-1)
         if tok.kind == "-":
             self.take()
             if not self._starts_factor():
@@ -294,20 +311,18 @@ class _Parser:
         raise self._error(f"expected a tangle (digits, '(' or '-'), found {_describe(tok)}",
                           tok.pos)
 
-    def run(self) -> _Slot:
+    def run(self, first_sign: int = 1) -> _Slot:
         """A rational run: digits of one token, or space-separated (signed) entries."""
         first = self.take()
-        entries: list[tuple[str, int]] = [(first.text, first.pos)]
-        while True:
+        entries: list[tuple[str, int]] = [("-" + first.text if first_sign < 0 else first.text,
+                                           first.pos)]
+        while self._run_continues(0):
             tok = self.peek()
-            if tok.kind == "num" and tok.space_before:
+            if tok.kind == "num":
                 entries.append((self.take().text, tok.pos))
-            elif (tok.kind == "-" and tok.space_before and self.peek(1).kind == "num"
-                  and not self.peek(1).space_before):
+            else:
                 self.take()
                 entries.append(("-" + self.take().text, tok.pos))
-            else:
-                break
         if len(entries) == 1:
             values = [int(d) for d in first.text]
         else:
@@ -376,6 +391,33 @@ def _vertex_tangles(name: str, slots: list[_Slot | None], seps: list[tuple[str, 
                                 f"{sep!r} starts a tangle for vertex {len(out)}", value=text,
                                 where=f"position {pos + 1}")
     return out
+
+
+def rational_chain(text: str) -> list[int] | None:
+    """The continued-fraction entries of a notation that is one rational chain, else None.
+
+    ``"2312"``, ``"2 3 1 2"``, ``"-2 3"`` and ``"(-2) 3"`` are chains (their
+    knots are 2-bridge); ``"3,3,2"``, ``".2.20"`` and ``"8*"`` are not.  The
+    entries are those the diagram of :func:`parse_conway_notation` is built
+    from, so the fraction ``an + 1/(... + 1/a1)`` is that knot's.
+
+    Raises
+    ------
+    NotationError
+        On malformed notation.
+
+    Examples
+    --------
+    >>> rational_chain("2312"), rational_chain("-2 3"), rational_chain("3,3,2")
+    ([2, 3, 1, 2], [-2, 3], None)
+    """
+    if not isinstance(text, str):
+        raise NotationError(f"Conway notation: expected text, got {type(text).__name__}",
+                            value=text)
+    name, slots, seps = _Parser(text).notation()
+    if name is not None or seps or slots[0] is None or slots[0].entries is None:
+        return None
+    return list(slots[0].entries)
 
 
 def conway_vertex_tangles(text: str) -> tuple[str, list[Tangle | None]]:

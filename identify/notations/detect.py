@@ -22,6 +22,11 @@
 Text of brackets only is the unknot: ``[]`` as a PD code, ``()`` as a Gauss
 code.  Spaced Conway notation such as ``3 2`` reads as a braid by rule 6d; write
 ``Conway: 3 2`` or pass ``notation="conway"``.
+
+Readings that are not clear-cut (rule 5 for words of letters beyond ``e``,
+rules 6c and 6d) get a note from :func:`detection_note` saying what was
+chosen and how to force another; :func:`reading_of` tells named, given and
+detected notations apart for the result.
 """
 
 from __future__ import annotations
@@ -36,7 +41,11 @@ from .dt import parse_dt
 from .gauss import parse_gauss_with_uncertain
 from .pd import parse_pd_with_uncertain
 
-__all__ = ["NOTATIONS", "detect_notation", "parse_any", "parse_any_with_uncertain"]
+__all__ = ["NOTATIONS", "detect_notation", "detection_note", "parse_any",
+           "parse_any_with_uncertain", "reading_of"]
+
+_FORCE = ("to choose the reading, start the text with 'PD:', 'DT:', 'Gauss:', 'braid:' or "
+          "'Conway:' (or pass --notation / notation=)")
 
 NOTATIONS = ("pd", "dt", "gauss", "braid", "conway")
 
@@ -165,6 +174,65 @@ def detect_notation(text: str) -> str:
     if _pairs_up(numbers):
         return "gauss"
     return "braid"
+
+
+def detection_note(text: str, notation: str) -> str | None:
+    """Why a detected reading may not be the one meant, and how to force another.
+
+    None when the detection is clear-cut: a named notation, PD and Gauss
+    codes with their own marks (``X[``, ``O1+``), DT codes, or Conway's
+    digit strings and algebraic forms.  A note when integers alone were read
+    as a braid word or as a Gauss code, or when letters alone were read as a
+    braid word with generators beyond sigma_5 (``hello`` is a braid on 16
+    strands).
+
+    Examples
+    --------
+    >>> detection_note("4 6 2 2", "braid").startswith("read as a braid word")
+    True
+    >>> detection_note("DT: 4 6 2", "dt") is None
+    True
+    """
+    if not isinstance(text, str) or _named(text):
+        return None
+    body = text.strip()
+    numbers = _integers(body)
+    if notation == "braid" and numbers:
+        why = ("read as a braid word (integer i is sigma_i, -i its inverse): these integers "
+               "are neither a DT code (2, 4, ..., 2n, each once) nor a Gauss code (each "
+               "number once positive and once negative); spaced Conway notation such as "
+               "'3 2' reads this way too")
+        if all(x != 0 and x % 2 == 0 for x in numbers):
+            why += ("; all of them are even, as in a DT code, so a mistyped DT code is "
+                    "likely")
+        return f"{why}; {_FORCE}"
+    letters = body.replace(" ", "")
+    top = max((ord(ch.lower()) - ord("a") + 1 for ch in letters if ch.isalpha()), default=0)
+    if notation == "braid" and letters.isalpha() and top > 5:
+        return (f"read as a braid word in letters (a = sigma_1, b = sigma_2, ..., capitals "
+                f"the inverses): generators up to sigma_{top}, a braid on {top + 1} strands; "
+                f"{_FORCE}")
+    if notation == "gauss" and numbers and not any(ch in body for ch in "|;\n"):
+        return ("read as a Gauss code, because each number appears once positive and once "
+                f"negative; {_FORCE}")
+    return None
+
+
+def reading_of(text, given: str | None, used: str) -> tuple[str, str | None]:
+    """How the notation of an input was settled, and a note when the detection is unsure.
+
+    Returns
+    -------
+    (str, str or None)
+        ``"given"`` (passed by the caller), ``"named"`` (the text starts
+        with the notation's name) or ``"detected"``; and
+        :func:`detection_note` for detected readings.
+    """
+    if given is not None:
+        return "given", None
+    if isinstance(text, str) and _named(text):
+        return "named", None
+    return "detected", detection_note(text, used)
 
 
 def _pd(text: str) -> tuple[Diagram, list[int]]:

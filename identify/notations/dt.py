@@ -34,7 +34,11 @@ from ..diagram import Diagram
 from ..errors import NotationError
 from .gauss import _build, _loose_crossings, _shadow_signs
 
-__all__ = ["parse_dt", "write_dt", "dt_entries"]
+__all__ = ["parse_dt", "write_dt", "dt_entries", "dt_drawings", "MAX_FLIPS"]
+
+#: A shadow with more two-edge cuts than this is refused by :func:`dt_drawings`
+#: (2^MAX_FLIPS drawings).
+MAX_FLIPS = 6
 
 _DIGITS = "0123456789"
 _MINUS = "-\u2212"
@@ -208,6 +212,61 @@ def parse_dt(code: str | Sequence[int]) -> Diagram:
     loose = _loose_crossings([walk], "DT code", name=lambda c: f"odd label {2 * c - 1}")
     signs = _shadow_signs([walk], "DT code", loose)
     return _build([walk], signs, 0, "DT code")
+
+
+def dt_drawings(code: str | Sequence[int]) -> tuple[list[Diagram], list[int]]:
+    """Every knot diagram a DT code may stand for, and the sizes of the pieces that flip.
+
+    A DT code fixes its shadow only up to turning over each piece that two
+    edges cut off from the rest (which mirrors that piece).  Pieces of one or
+    two crossings are harmless (:func:`parse_dt`); for each piece of three or
+    more, both ways round are drawn, the chirality rule fixing the piece that
+    holds the crossing it is read at.
+
+    Returns
+    -------
+    (list of Diagram, list of int)
+        One diagram when the shadow has no such cut (the diagram of
+        :func:`parse_dt`); otherwise ``2^k`` diagrams for ``k`` pieces, the
+        first drawn as the planar embedding found, and the crossing counts of
+        the ``k`` pieces.
+
+    Raises
+    ------
+    NotationError
+        As :func:`parse_dt`, except for the connected-sum refusal; and when
+        more than ``MAX_FLIPS`` pieces could flip.
+
+    Examples
+    --------
+    >>> drawings, pieces = dt_drawings("4 10 12 2 6 8")  # two trefoils in a row
+    >>> len(drawings), pieces
+    (2, [3])
+    """
+    entries = dt_entries(code)
+    if not entries:
+        return [Diagram.unknot()], []
+    walk = _walk(entries)
+    cuts: list[frozenset[int]] = []
+    loose = _loose_crossings([walk], "DT code", name=lambda c: f"odd label {2 * c - 1}",
+                             cuts=cuts)
+    signs = _shadow_signs([walk], "DT code", loose)
+    anchor = next((c for c, _ in walk if c not in loose), walk[0][0])
+    pieces = sorted({frozenset(set(signs) - cut) if anchor in cut else cut for cut in cuts},
+                    key=lambda p: (len(p), sorted(p)))
+    if len(pieces) > MAX_FLIPS:
+        raise NotationError(f"DT code: its shadow has {len(pieces)} pieces that may each be "
+                            f"drawn either way round; at most {MAX_FLIPS} are tried "
+                            f"(2^{MAX_FLIPS} drawings); give a PD code instead", value=code)
+    drawings = []
+    for mask in range(1 << len(pieces)):
+        flipped: set[int] = set()
+        for bit, piece in enumerate(pieces):
+            if mask >> bit & 1:
+                flipped ^= piece
+        drawings.append(_build([walk], {c: -s if c in flipped else s
+                                        for c, s in signs.items()}, 0, "DT code"))
+    return drawings, [len(p) for p in pieces]
 
 
 def write_dt(diagram: Diagram) -> str:

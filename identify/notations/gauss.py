@@ -624,7 +624,7 @@ def _bridges(nodes: list[int], edges: list[tuple[int, int]], skip: int) -> list[
 
 
 def _loose_crossings(comps: Sequence[Sequence[tuple[int, bool]]], what: str,
-                     name=lambda c: f"crossing {c}") -> set[int]:
+                     name=lambda c: f"crossing {c}", cuts: list | None = None) -> set[int]:
     """Crossings of pieces that can be turned over without changing the knot; raise if a
     piece that matters can.
 
@@ -634,6 +634,10 @@ def _loose_crossings(comps: Sequence[Sequence[tuple[int, bool]]], what: str,
     two crossings (a kink, say) is harmless, since a knotted arc needs at
     least three crossings (common practice); its crossings are returned so
     that the mirror rule is read elsewhere.
+
+    With a list ``cuts``, a cut into two pieces of three or more crossings is
+    not refused: the smaller piece's crossings are appended to ``cuts`` (as
+    a frozenset) for the caller to try both ways round.
     """
     edges = []
     for comp in comps:
@@ -660,6 +664,9 @@ def _loose_crossings(comps: Sequence[Sequence[tuple[int, bool]]], what: str,
                         side.add(nb)
                         todo.append(nb)
             rest = {v for v in nodes if parts[v] == parts[start]} - side
+            if min(len(side), len(rest)) >= 3 and cuts is not None:
+                cuts.append(frozenset(side if len(side) <= len(rest) else rest))
+                continue
             if min(len(side), len(rest)) >= 3:
                 raise NotationError(
                     f"{what} does not determine the knot: its shadow is cut by two edges into "

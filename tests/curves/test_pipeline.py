@@ -165,7 +165,7 @@ def test_json_schema_fields(table):
                        source="protein.pdb")
     d = json.loads(json.dumps(r.to_dict()))
     assert set(d["curve"]) == {"frame", "chain", "closed", "beads", "closure", "spectrum",
-                               "core", "geometry", "warnings"}
+                               "core", "geometry", "warnings", "gaps"}
     assert set(d["curve"]["core"]) == {"start", "end", "beads", "fraction", "closure",
                                        "evaluations", "wraps"}
     assert {"beads_used", "vertices_reduced", "crossings_projected", "closures"} <= set(
