@@ -12,7 +12,8 @@ import random
 from .diagram import Diagram
 from .errors import DiagramError
 
-__all__ = ["add_kink", "add_bigon", "r3_triangles", "apply_r3", "scramble", "shuffle_labels"]
+__all__ = ["add_kink", "add_bigon", "r3_triangles", "apply_r3", "r3_crossings", "is_r3_triangle",
+           "scramble", "shuffle_labels"]
 
 
 def _fresh(diagram: Diagram, k: int) -> list[int]:
@@ -139,17 +140,26 @@ def r3_triangles(diagram: Diagram) -> list[int]:
     out = []
     xs = diagram.crossings
     for f, face in enumerate(diagram.faces()):
-        if len(face) != 3 or len({c for c, _ in face}) != 3:
-            continue
-        (c1, k1), (c2, k2), (c3, k3) = face
-        edges = {xs[c1][(k1 + 1) % 4], xs[c2][(k2 + 1) % 4], xs[c3][(k3 + 1) % 4]}
-        if len(edges) != 3:
-            continue
-        # strand S1 sits at entry k1+1 of c1 and entry k2 of c2, and so on round the face
-        strands = [((k1 + 1) % 4, k2 % 4), ((k2 + 1) % 4, k3 % 4), ((k3 + 1) % 4, k1 % 4)]
-        if any(a % 2 == 1 and b % 2 == 1 for a, b in strands):
+        if is_r3_triangle(xs, face):
             out.append(f)
     return out
+
+
+def is_r3_triangle(crossings, corners) -> bool:
+    """True when the face ``corners`` (in face-walk order) admits Reidemeister III.
+
+    ``crossings`` may be a list or a mapping by crossing id.
+    """
+    if len(corners) != 3 or len({c for c, _ in corners}) != 3:
+        return False
+    xs = crossings
+    (c1, k1), (c2, k2), (c3, k3) = corners
+    edges = {xs[c1][(k1 + 1) % 4], xs[c2][(k2 + 1) % 4], xs[c3][(k3 + 1) % 4]}
+    if len(edges) != 3:
+        return False
+    # strand S1 sits at entry k1+1 of c1 and entry k2 of c2, and so on round the face
+    strands = [((k1 + 1) % 4, k2 % 4), ((k2 + 1) % 4, k3 % 4), ((k3 + 1) % 4, k1 % 4)]
+    return any(a % 2 == 1 and b % 2 == 1 for a, b in strands)
 
 
 def apply_r3(diagram: Diagram, face: int) -> Diagram:
@@ -162,10 +172,29 @@ def apply_r3(diagram: Diagram, face: int) -> Diagram:
         raise DiagramError(f"face {face} is not a triangle where Reidemeister III applies",
                            value=face)
     xs = [list(x) for x in diagram.crossings]
-    (c1, k1), (c2, k2), (c3, k3) = diagram.faces()[face]
+    corners = diagram.faces()[face]
+    new = r3_crossings(diagram.crossings, corners, _fresh(diagram, 3))
+    for (c, _), x in zip(corners, new, strict=True):
+        xs[c] = list(x)
+    return Diagram([tuple(x) for x in xs], diagram.free_loops)
+
+
+def r3_crossings(crossings, corners, fresh) -> list[tuple[int, int, int, int]]:
+    """The three crossings of a triangle after Reidemeister III (no checks).
+
+    Parameters
+    ----------
+    crossings : indexable of 4-sequences
+        The PD code (a list or a mapping by crossing id).
+    corners : three (crossing, corner) pairs
+        The triangular face, as listed by ``Diagram.faces()``.
+    fresh : three unused labels
+        The new inner edges.
+    """
+    (c1, k1), (c2, k2), (c3, k3) = corners
 
     def at(c: int, k: int) -> int:
-        return diagram.crossings[c][k % 4]
+        return crossings[c][k % 4]
 
     # strands (running o -> crossing -> inner edge -> crossing -> o):
     # S1: o1b -> c1 -> e1 -> c2 -> o2a;  S2: o2b -> c2 -> e2 -> c3 -> o3a;
@@ -173,18 +202,17 @@ def apply_r3(diagram: Diagram, face: int) -> Diagram:
     o1a, o1b = at(c1, k1 + 2), at(c1, k1 + 3)
     o2a, o2b = at(c2, k2 + 2), at(c2, k2 + 3)
     o3a, o3b = at(c3, k3 + 2), at(c3, k3 + 3)
-    n1, n2, n3 = _fresh(diagram, 3)  # the new inner edges of S1, S2, S3
-    new1 = list(xs[c1])  # becomes S1 x S3, now after S1 x S2 along S1
+    n1, n2, n3 = fresh  # the new inner edges of S1, S2, S3
+    new1 = list(crossings[c1])  # becomes S1 x S3, now after S1 x S2 along S1
     new1[(k1 + 3) % 4], new1[(k1 + 1) % 4] = n1, o2a
     new1[k1 % 4], new1[(k1 + 2) % 4] = o3b, n3
-    new2 = list(xs[c2])  # S1 x S2
+    new2 = list(crossings[c2])  # S1 x S2
     new2[k2 % 4], new2[(k2 + 2) % 4] = o1b, n1
     new2[(k2 + 3) % 4], new2[(k2 + 1) % 4] = n2, o3a
-    new3 = list(xs[c3])  # S2 x S3
+    new3 = list(crossings[c3])  # S2 x S3
     new3[k3 % 4], new3[(k3 + 2) % 4] = o2b, n2
     new3[(k3 + 3) % 4], new3[(k3 + 1) % 4] = n3, o1a
-    xs[c1], xs[c2], xs[c3] = new1, new2, new3
-    return Diagram([tuple(x) for x in xs], diagram.free_loops)
+    return [tuple(new1), tuple(new2), tuple(new3)]
 
 
 def shuffle_labels(diagram: Diagram, rng: random.Random) -> Diagram:

@@ -1,27 +1,36 @@
-"""Diagram simplification by moves that never add crossings.
+"""Diagram simplification by moves that never add crossings in the end.
 
-Two moves are applied until neither applies:
+The moves, cheapest first:
 
 * nugatory crossings (the same face meets two opposite corners; Reidemeister I
   kinks are the simplest case) are untwisted away;
 * Reidemeister II bigons (a strand passing over the same strand twice in a
-  row) are pulled apart.
+  row) are pulled apart;
+* an over-strand (an arc of the diagram that only passes over) is lifted off
+  and laid down again along a shortest path through the faces, when that
+  path crosses fewer edges; the same for under-strands
+  (:mod:`knotsift.strands`);
+* a Reidemeister III move on a triangle is made when it opens a new
+  Reidemeister I or II reduction;
+* with ``effort`` above 1, a seeded randomised search applies random
+  Reidemeister III moves to the best diagram so far, simplifies again and
+  keeps the result when it has fewer crossings.
 
-The knot or link type never changes.  The result is usually much smaller than
-a diagram projected from 3D coordinates; it is not guaranteed to be minimal.
+The knot or link type never changes.  The result is usually much smaller
+than a diagram projected from 3D coordinates; it is not guaranteed to be
+minimal.  The first two moves run on a mutable working copy of the PD code,
+so that a move costs O(1) and the whole code is validated once at the end
+(not once per move).
 """
 
 from __future__ import annotations
 
+import random
+
 from .diagram import Diagram, join_edges
+from .working_code import WorkingCode, flipped
 
-__all__ = ["simplify", "remove_nugatory", "remove_bigon"]
-
-
-def _flipped(x: tuple[int, int, int, int], sign: int) -> tuple[int, int, int, int]:
-    """A crossing seen after turning its part of the diagram over (same sign)."""
-    a, b, c, d = x
-    return (d, c, b, a) if sign > 0 else (b, a, d, c)
+__all__ = ["simplify", "reduce_nugatory_and_bigons", "remove_nugatory", "remove_bigon"]
 
 
 def _face_of_corner(diagram: Diagram) -> dict[tuple[int, int], int]:
@@ -56,7 +65,7 @@ def remove_nugatory(diagram: Diagram) -> Diagram | None:
                     if nj != i and nj not in side:
                         stack.append(nj)
             signs = diagram.signs()
-            new = [(_flipped(y, signs[j]) if j in side else y) for j, y in enumerate(xs)]
+            new = [(flipped(y, signs[j]) if j in side else y) for j, y in enumerate(xs)]
             pairs = [(x[(k + 1) % 4], x[(k + 3) % 4]), (x[(k + 2) % 4], x[k])]
             return join_edges(new, {i}, pairs, diagram.free_loops)
     return None
@@ -87,12 +96,58 @@ def remove_bigon(diagram: Diagram) -> Diagram | None:
     return None
 
 
-def simplify(diagram: Diagram) -> Diagram:
-    """A diagram of the same knot or link with no nugatory crossing and no R2 bigon.
+def reduce_nugatory_and_bigons(diagram: Diagram) -> Diagram:
+    """Remove nugatory crossings and Reidemeister II bigons until none is left.
+
+    The moves run on a working code; the result is validated once.  Edge
+    labels are those of the input where they survive (not renumbered).
+    """
+    return _reduce(diagram, 0)
+
+
+def _reduce(diagram: Diagram, effort: int) -> Diagram:
+    """R1/R2 to exhaustion, then strand rerouting and R3 openings while they gain."""
+    from .strands import reroute_in
+
+    work = WorkingCode(diagram)
+    work.reduce_locally(list(work.xs))
+    while True:
+        touched = work.remove_one_nugatory()
+        if touched is None and effort >= 1:
+            touched = reroute_in(work)
+            if touched is None:
+                touched = work.r3_opening()
+        if touched is None:
+            break
+        work.reduce_locally(list(touched))
+    return work.diagram()
+
+
+def _random_r3(diagram: Diagram, moves: int, rng: random.Random) -> Diagram:
+    from .reidemeister import apply_r3, r3_triangles
+
+    for _ in range(moves):
+        triangles = r3_triangles(diagram)
+        if not triangles:
+            break
+        diagram = apply_r3(diagram, rng.choice(triangles))
+    return diagram
+
+
+def simplify(diagram: Diagram, effort: int = 1, seed: int = 0) -> Diagram:
+    """A diagram of the same knot or link with (usually far) fewer crossings.
 
     Parameters
     ----------
     diagram : Diagram
+    effort : int, optional
+        0: nugatory crossings and Reidemeister II bigons only.  1 (default):
+        also strand rerouting and Reidemeister III moves that open
+        reductions.  k > 1: also k - 1 rounds of a randomised search
+        (random Reidemeister III moves, then everything above), keeping the
+        smallest diagram.
+    seed : int, optional
+        Seeds the randomised search, so the result is reproducible.
 
     Returns
     -------
@@ -107,16 +162,21 @@ def simplify(diagram: Diagram) -> Diagram:
 
     Notes
     -----
-    Each pass costs O(n); the number of passes is at most n.
+    A kink or bigon removal costs O(1); finding a nugatory crossing that is
+    not a kink, an over-strand's shortest path or an R3 opening costs O(n)
+    and happens at most once per crossing removed.
     """
-    current = diagram
-    while True:
-        nxt = remove_nugatory(current)
-        if nxt is None:
-            nxt = remove_bigon(current)
-        if nxt is None:
-            break
-        current = nxt
-    if current.number_of_crossings() == 0:
-        return Diagram([], current.free_loops)
-    return current.standard_labels()
+    if isinstance(effort, bool) or not isinstance(effort, int) or effort < 0:
+        raise ValueError(f"effort must be a non-negative integer, got {effort!r}")
+    best = _reduce(diagram, effort)
+    if effort > 1 and best.number_of_crossings() > 0:
+        rng = random.Random(seed)
+        for _ in range(effort - 1):
+            if best.number_of_crossings() == 0:
+                break
+            trial = _reduce(_random_r3(best, rng.randint(1, 4), rng), 1)
+            if trial.number_of_crossings() < best.number_of_crossings():
+                best = trial
+    if best.number_of_crossings() == 0:
+        return Diagram([], best.free_loops)
+    return best.standard_labels()

@@ -1,9 +1,16 @@
 """Self-contact: chains that pass through themselves (or each other) have no knot type.
 
-Two segments that are not neighbours along a chain and come closer than a
-tolerance (relative to the median bond length) mean that the curve touches
-itself: a crossing change could sit there, so the knot type is ill-defined.
-That is reported as an error, never guessed.
+Two segments that are not neighbours along a chain and meet (within the
+floating-point resolution of the coordinates) mean that the curve passes
+through itself: a crossing change could sit there, so the knot type is not
+defined.  That is an error, never guessed.
+
+Segments that come close without meeting are a *near approach*: the
+coordinates still define the knot type, and the projection decides every
+crossing by exact predicates (:mod:`.predicates`), so the answer is that of
+the curve as given.  It is reported as a warning with the distance, since a
+change of the coordinates that small (for example their rounding in a file)
+could change the type.
 """
 
 from __future__ import annotations
@@ -13,10 +20,23 @@ import numpy as np
 from ..errors import CurveError
 from .segments import near_pairs, segment_distances
 
-__all__ = ["CONTACT_TOL", "SegmentSet", "segment_set", "closest_contacts", "check_no_contact"]
+__all__ = ["CONTACT_TOL", "RESOLUTION", "SegmentSet", "segment_set", "closest_contacts",
+           "check_no_contact", "contact_resolution"]
 
-#: Non-adjacent segments closer than this (in median bond lengths) touch.
+#: Non-adjacent segments closer than this (in median bond lengths) are a near
+#: approach, reported as a warning.
 CONTACT_TOL = 1e-4
+#: Segments closer than this, relative to the largest coordinate (at least 1
+#: bond length), meet within floating-point resolution: the chain passes
+#: through itself.  About 4500 unit roundoffs, above the rounding error of the
+#: distance computation.
+RESOLUTION = 1e-12
+
+
+def contact_resolution(chains: list[tuple[np.ndarray, bool]]) -> float:
+    """The distance (median bond lengths) under which two segments count as meeting."""
+    scale = max((float(np.abs(x).max(initial=0.0)) for x, _ in chains), default=0.0)
+    return RESOLUTION * max(1.0, scale)
 
 
 class SegmentSet:
@@ -84,8 +104,8 @@ def closest_contacts(segs: SegmentSet, tol: float
 
 def check_no_contact(chains: list[tuple[np.ndarray, bool]], ids: list[str],
                      kept: list[np.ndarray] | None = None, tol: float = CONTACT_TOL,
-                     where: str = "") -> None:
-    """Raise :class:`CurveError` when a chain passes through itself or another chain.
+                     where: str = "") -> list[str]:
+    """Raise when a chain passes through itself or another; warn about near approaches.
 
     Parameters
     ----------
@@ -96,19 +116,33 @@ def check_no_contact(chains: list[tuple[np.ndarray, bool]], ids: list[str],
     kept : list of int arrays, optional
         Original bead index of each vertex (for the message).
     tol : float
-        Contact distance in median bond lengths.
+        Near-approach distance in median bond lengths (warned about).
     where : str
         File and frame, for the message.
+
+    Returns
+    -------
+    list of str
+        One warning naming the closest near approach and how many there are,
+        or an empty list.
+
+    Raises
+    ------
+    CurveError
+        When two non-adjacent segments meet within :func:`contact_resolution`.
 
     Notes
     -----
     Segments are hashed into a grid, so the cost is about linear in the
-    number of beads for chains of roughly uniform bond length.
+    number of beads for chains of roughly uniform bond length.  Segments
+    that meet exactly but are computed a little apart (nearly parallel ones)
+    are still caught later: the exact projection finds them meeting in
+    space and no direction is generic.
     """
     segs = segment_set(chains)
     i, j, d = closest_contacts(segs, tol)
     if i.size == 0:
-        return
+        return []
     a, b = int(i[0]), int(j[0])
 
     def beads(s: int) -> str:
@@ -121,10 +155,20 @@ def check_no_contact(chains: list[tuple[np.ndarray, bool]], ids: list[str],
         return f"chain {ids[c]} beads {k}-{k2}"
 
     ca, cb = int(segs.chain[a]), int(segs.chain[b])
-    what = (f"chain {ids[ca]} passes through itself" if ca == cb
-            else f"chains {ids[ca]} and {ids[cb]} touch")
-    raise CurveError(
-        f"{what}: the segments {beads(a)} and {beads(b)} are {d[0]:.2g} bond lengths apart "
-        f"(contact below {tol:g}); the knot type is not defined there "
-        f"({i.size} such contact(s) in all)", value=float(d[0]),
-        where=(f"{where}, " if where else "") + beads(a))
+    resolution = contact_resolution(chains)
+    meeting = int(np.count_nonzero(d <= resolution))
+    if meeting:
+        what = (f"chain {ids[ca]} passes through itself" if ca == cb
+                else f"chains {ids[ca]} and {ids[cb]} touch")
+        raise CurveError(
+            f"{what}: the segments {beads(a)} and {beads(b)} are {d[0]:.2g} bond lengths apart, "
+            f"which is within the floating-point resolution of the coordinates "
+            f"({resolution:.2g}); the knot type is not defined there "
+            f"({meeting} such contact(s) in all)", value=float(d[0]),
+            where=(f"{where}, " if where else "") + beads(a))
+    what = (f"chain {ids[ca]} comes close to itself" if ca == cb
+            else f"chains {ids[ca]} and {ids[cb]} come close")
+    return [f"near approach: {what}: the segments {beads(a)} and {beads(b)} are {d[0]:.2g} "
+            f"bond lengths apart ({i.size} approach(es) closer than {tol:g}); the crossings "
+            "there are decided exactly, so the type is that of the coordinates as given, but "
+            "moving a bead by that distance could change it"]

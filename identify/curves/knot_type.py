@@ -24,7 +24,12 @@ from ..simplify import simplify
 from .kmt import KMT_TOL, kmt_reduce
 from .projection import PROJECTION_TOL, project
 
-__all__ = ["PolygonType", "polygon_type", "cached_fingerprint", "cached_invariants"]
+__all__ = ["PolygonType", "polygon_type", "cached_fingerprint", "cached_invariants",
+           "PROJECTION_DIRECTIONS"]
+
+#: Seeded view directions compared per projection; the one with the fewest
+#: crossings is used (bench/bench_simplify.py measures the effect).
+PROJECTION_DIRECTIONS = 3
 
 _CACHE: OrderedDict[tuple, Staged] = OrderedDict()
 _CACHE_SIZE = 4096
@@ -80,7 +85,8 @@ class PolygonType:
 
 def polygon_type(chains: list[tuple[np.ndarray, bool]], rng: np.random.Generator,
                  reduce: bool = True, simplified: bool = True, where: str = "",
-                 with_fingerprint: bool = True) -> PolygonType:
+                 with_fingerprint: bool = True,
+                 directions: int = PROJECTION_DIRECTIONS) -> PolygonType:
     """Reduce (KMT), project and fingerprint closed chains in median-bond units.
 
     Parameters
@@ -95,11 +101,14 @@ def polygon_type(chains: list[tuple[np.ndarray, bool]], rng: np.random.Generator
         Simplify the diagram before the invariants (off only for benchmarks).
     with_fingerprint : bool
         Compute the fingerprint (off when only crossings are needed).
+    directions : int
+        View directions drawn from ``rng``; the projection with the fewest
+        crossings is kept.
     """
     n_in = sum(len(x) for x, _ in chains)
     if reduce:
         chains = kmt_reduce(chains, tol=KMT_TOL).chains
-    proj = project(chains, rng, tol=PROJECTION_TOL, where=where)
+    proj = project(chains, rng, tol=PROJECTION_TOL, where=where, directions=directions)
     d = proj.diagram
     simple = simplify(d) if simplified else d
     if with_fingerprint:

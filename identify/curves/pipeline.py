@@ -345,17 +345,17 @@ def _identify_chain(chain: Chain, source: str, frame: int | None, closure: str,
     with item_budget(budget):  # one chain is one item: its wall time starts here
         prep = prepare_chains([chain], where=where)
         x = prep.chains[0].coords
-        check_no_contact([(x, chain.closed)], [chain.id], prep.kept, where=where)
+        near = check_no_contact([(x, chain.closed)], [chain.id], prep.kept, where=where)
         try:
             result = _identify_prepared(x, prep.kept[0], len(chain.coords), chain.id,
                                         chain.closed, closure, n_closures, seed, localise,
-                                        table, label, where, prep.warnings)
+                                        table, label, where, list(prep.warnings) + near)
         except TooComplex as exc:  # past the deadline outside identify_diagram (closures)
             result = CurveResult(status="too complex", error=exc.message, source=label,
                                  notation=CURVE_NOTATION, chain=chain.id, closed=chain.closed,
                                  beads=len(chain.coords),
                                  closure=None if chain.closed else closure,
-                                 warnings=list(prep.warnings), primality="unknown")
+                                 warnings=list(prep.warnings) + near, primality="unknown")
             result.notes.append(f"{exc.message}; no invariant of the chain was kept")
     result.frame = frame
     return result
@@ -456,7 +456,7 @@ def _linking(frame: Frame, rings: list[Chain], seed: int) -> tuple[list[dict], l
     prep = prepare_chains(rings, where=frame.where)
     chains = [(c.coords, True) for c in prep.chains]
     ids = [c.id for c in rings]
-    check_no_contact(chains, ids, prep.kept, where=frame.where)
+    near = check_no_contact(chains, ids, prep.kept, where=frame.where)
     reduced = kmt_reduce(chains).chains
     proj = project(reduced, np.random.default_rng([seed, 3]), where=frame.where)
     diagram = proj.diagram
@@ -469,7 +469,7 @@ def _linking(frame: Frame, rings: list[Chain], seed: int) -> tuple[list[dict], l
                 raise CurveError(f"linking number of {ids[a]} and {ids[b]} counted two ways "
                                  "disagrees", where=frame.where)
             out.append({"a": ids[a], "b": ids[b], "linking_number": int(lk)})
-    return out, []
+    return out, near
 
 
 def identify_frame(frame: Frame, closure: str = "stochastic",

@@ -4,30 +4,32 @@ The curve is viewed along a random direction ``u`` (towards the viewer); a
 point is "over" when it is higher along ``u``.  Crossings are the proper
 intersections of the projections of non-adjacent segments.  A crossing is
 positive when ``(over direction x under direction) . u > 0`` (common
-practice).  When any crossing is nearly degenerate (nearly parallel
-segments, a crossing near a segment end, a vertex projecting onto another
-segment, nearly equal heights) the direction is redrawn rather than the
-crossing guessed.
+practice).  Every decision (do two segments cross, which is on top, in
+which order a segment meets its crossings) is the sign of a determinant of
+the input coordinates, decided exactly (:mod:`.predicates`), so segments
+that come very close are still resolved correctly.  Only an exact
+degeneracy (a vertex projecting exactly onto another segment, segments that
+meet in space, a segment seen end-on) makes the direction be redrawn.
 """
 
 from __future__ import annotations
 
 from dataclasses import dataclass
+from fractions import Fraction
 
 import numpy as np
 
 from ..diagram import Diagram
 from ..errors import CurveError
 from .contact import SegmentSet, segment_set
-from .segments import near_pairs, norm
+from .predicates import det3, det3_exact, exact_vector
+from .segments import cross, near_pairs
 
 __all__ = ["PROJECTION_TOL", "MAX_REDRAWS", "Projection", "random_direction", "project",
            "curve_diagram", "crossings_along"]
 
 #: Degeneracy margin in the projection plane and in height (median bond lengths).
 PROJECTION_TOL = 1e-9
-#: Sine of the angle below which two projected segments count as parallel.
-PARALLEL_SIN = 1e-9
 #: Directions tried before giving up on finding a generic projection.
 MAX_REDRAWS = 50
 
@@ -90,71 +92,162 @@ def _frame_for(u: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
     return e1, e2
 
 
-def _cross2(a: np.ndarray, b: np.ndarray) -> np.ndarray:
-    return a[:, 0] * b[:, 1] - a[:, 1] * b[:, 0]
-
-
 def _crossings(segs: SegmentSet, u: np.ndarray, tol: float):
-    """Crossings seen along ``u``: rows (seg a, t, seg b, s, a_over, sign); None if degenerate."""
+    """Crossings seen along ``u``: rows (seg a, t, seg b, s, a_over, sign); None if degenerate.
+
+    Every decision is the sign of a determinant (:mod:`.predicates`): decided
+    in floating point where the rounding bound allows, exactly otherwise.
+    Only an exact degeneracy (a vertex projecting exactly onto another
+    segment, two segments meeting in space, a segment seen end-on) rejects the
+    direction.  ``tol`` only widens the bounding boxes that select candidate
+    pairs.
+    """
     e1, e2 = _frame_for(u)
     P = np.stack((segs.p @ e1, segs.p @ e2), axis=1)
     Q = np.stack((segs.q @ e1, segs.q @ e2), axis=1)
-    hp, hq = segs.p @ u, segs.q @ u
     m = P.shape[0]
-    lo = np.minimum(P, Q) - tol
-    hi = np.maximum(P, Q) + tol
+    scale = max(1.0, float(np.abs(segs.p).max(initial=0.0)))
+    pad = max(tol, 1e-9) * scale
+    lo = np.minimum(P, Q) - pad
+    hi = np.maximum(P, Q) + pad
     if m <= 600:
         i, j = np.triu_indices(m, 1)
         ok = np.all((lo[i] <= hi[j]) & (lo[j] <= hi[i]), axis=1)
         i, j = i[ok], j[ok]
     else:
         i, j = near_pairs(lo, hi)
-    r = Q - P
-    rl = norm(r)
-    if np.any(rl <= tol):
+    r = segs.q - segs.p
+    uu = np.broadcast_to(u, r.shape)
+    if np.any(np.all(cross(r, uu) == 0.0, axis=1)):
         return None  # a segment seen end-on
     adj = segs.adjacent(i, j)
     if adj.any():
-        # neighbours share a vertex; they only matter if their projections overlap
+        # neighbours share a vertex; they overlap in projection only when collinear there
         ai, aj = i[adj], j[adj]
-        sin = _cross2(r[ai], r[aj]) / (rl[ai] * rl[aj])
-        if np.any((np.abs(sin) < PARALLEL_SIN)
-                  & (np.einsum("ij,ij->i", r[ai], r[aj]) < 0)):
-            return None
+        d, bound = det3(r[ai], r[aj], np.broadcast_to(u, (ai.size, 3)))
+        ue = exact_vector(u)
+        for k in np.flatnonzero(np.abs(d) <= bound):
+            a, b = exact_vector(r[ai[k]]), exact_vector(r[aj[k]])
+            if det3_exact(a, b, ue) == 0 and _seen_dot(a, b, ue) < 0:
+                return None  # collinear in projection and folding back onto each other
     i, j = i[~adj], j[~adj]
     if i.size == 0:
         return np.zeros((0, 6))
     ri, rj = r[i], r[j]
-    den = _cross2(ri, rj)
-    sin = den / (rl[i] * rl[j])
-    d = P[j] - P[i]
-    parallel = np.abs(sin) < PARALLEL_SIN
-    if parallel.any():
-        # parallel and within tol of each other in the plane: degenerate
-        k = np.flatnonzero(parallel)
-        off = np.abs(_cross2(d[k], ri[k])) / rl[i[k]]
-        if np.any(off <= tol):
+    ub = np.broadcast_to(u, (i.size, 3))
+    o1, b1 = det3(ri, segs.p[j] - segs.p[i], ub)
+    o2, b2 = det3(ri, segs.q[j] - segs.p[i], ub)
+    o3, b3 = det3(rj, segs.p[i] - segs.p[j], ub)
+    o4, b4 = det3(rj, segs.q[i] - segs.p[j], ub)
+    sure = (np.abs(o1) > b1) & (np.abs(o2) > b2) & (np.abs(o3) > b3) & (np.abs(o4) > b4)
+    hit = sure & (np.sign(o1) != np.sign(o2)) & (np.sign(o3) != np.sign(o4))
+    H = np.zeros(i.size)
+    if hit.any():
+        h, bh = det3(segs.p[i[hit]] - segs.p[j[hit]], ri[hit], rj[hit])
+        H[hit] = h
+        unsure_h = np.flatnonzero(hit)[np.abs(h) <= bh]
+    else:
+        unsure_h = np.zeros(0, dtype=np.int64)
+    H_sign = np.sign(H)
+    D_sign = np.sign(o2)  # det(ri, rj, u) = o2 - o1, which has o2's sign at a crossing
+    # pairs the float filter could not decide: exact arithmetic on the input floats
+    for k in np.concatenate((np.flatnonzero(~sure), unsure_h)).tolist():
+        ex = _exact_pair(segs, int(i[k]), int(j[k]), u)
+        if ex is None:
             return None
-    safe = np.where(parallel, 1.0, den)
-    t = _cross2(d, rj) / safe
-    s = _cross2(d, ri) / safe
-    dt = tol / rl[i]
-    ds = tol / rl[j]
-    near = (~parallel & (t >= -dt) & (t <= 1 + dt) & (s >= -ds) & (s <= 1 + ds))
-    at_end = (t < dt) | (t > 1 - dt) | (s < ds) | (s > 1 - ds)
-    if np.any(near & at_end):
-        return None
-    hit = near & ~at_end
-    i, j, t, s = i[hit], j[hit], t[hit], s[hit]
-    hi_ = hp[i] + t * (hq[i] - hp[i])
-    hj = hp[j] + s * (hq[j] - hp[j])
-    if np.any(np.abs(hi_ - hj) <= tol):
-        return None
-    i_over = hi_ > hj
-    over_dir = np.where(i_over[:, None], r[i], r[j])
-    under_dir = np.where(i_over[:, None], r[j], r[i])
-    sign = np.where(_cross2(over_dir, under_dir) > 0, 1, -1)
-    return np.stack((i, t, j, s, i_over, sign), axis=1)
+        crossing, vals = ex
+        hit[k] = crossing
+        if crossing:
+            o1[k], o2[k], o3[k], o4[k] = (float(v) for v in vals[:4])
+            D_sign[k] = 1.0 if vals[1] - vals[0] > 0 else -1.0
+            H_sign[k] = 1.0 if vals[4] > 0 else -1.0
+    i, j = i[hit], j[hit]
+    o1, o2, o3, o4 = o1[hit], o2[hit], o3[hit], o4[hit]
+    t = o3 / (o3 - o4)
+    s = o1 / (o1 - o2)
+    D_sign, H_sign = D_sign[hit], H_sign[hit]
+    i_over = H_sign * D_sign > 0  # height difference h = H / D along u
+    sign = np.where(i_over, D_sign, -D_sign).astype(np.int64)
+    found = np.stack((i, t, j, s, i_over, sign), axis=1)
+    _settle_ties(segs, found, u)
+    return found
+
+
+def _exact_pair(segs: SegmentSet, i: int, j: int, u: np.ndarray):
+    """Exact crossing test of segments ``i`` and ``j`` seen along ``u``.
+
+    Returns None for an exact degeneracy, else ``(crosses, (o1, o2, o3, o4, H))``.
+    """
+    pi, qi = exact_vector(segs.p[i]), exact_vector(segs.q[i])
+    pj, qj = exact_vector(segs.p[j]), exact_vector(segs.q[j])
+    ue = exact_vector(u)
+
+    def sub(a, b):
+        return tuple(x - y for x, y in zip(a, b, strict=True))
+
+    ri, rj = sub(qi, pi), sub(qj, pj)
+    o1 = det3_exact(ri, sub(pj, pi), ue)
+    o2 = det3_exact(ri, sub(qj, pi), ue)
+    o3 = det3_exact(rj, sub(pi, pj), ue)
+    o4 = det3_exact(rj, sub(qi, pj), ue)
+    if o1 * o2 < 0 and o3 * o4 < 0:
+        pass  # a proper crossing
+    elif ((o1 == 0 and _seen_between(pj, pi, qi, ue)) or (o2 == 0 and _seen_between(qj, pi, qi, ue))
+          or (o3 == 0 and _seen_between(pi, pj, qj, ue))
+          or (o4 == 0 and _seen_between(qi, pj, qj, ue))):
+        return None  # a vertex projects exactly onto the other segment (or they overlap)
+    else:
+        return False, ()
+    H = det3_exact(sub(pi, pj), ri, rj)
+    if H == 0:
+        return None  # the segments meet in space
+    return True, (o1, o2, o3, o4, H)
+
+
+def _seen_dot(a, b, u) -> Fraction:
+    """``|u|^2`` times the dot product of vectors ``a`` and ``b`` as seen along ``u`` (exact)."""
+    def dot(x, y):
+        return x[0] * y[0] + x[1] * y[1] + x[2] * y[2]
+
+    return dot(u, u) * dot(a, b) - dot(a, u) * dot(b, u)
+
+
+def _seen_between(x, p, q, u) -> bool:
+    """Whether ``x``, seen on the line of ``[p, q]`` along ``u``, lies within the segment."""
+    a = tuple(xi - pi for xi, pi in zip(x, p, strict=True))
+    b = tuple(xi - qi for xi, qi in zip(x, q, strict=True))
+    return _seen_dot(a, b, u) <= 0
+
+
+def _settle_ties(segs: SegmentSet, found: np.ndarray, u: np.ndarray) -> None:
+    """Order passages along a segment exactly where their float parameters nearly tie.
+
+    On each segment whose passage parameters come within 1e-9 of each other,
+    the parameters are recomputed exactly and replaced (in ``found``, in
+    place) by their ranks, which is all the ordering along the chain needs.
+    """
+    if found.shape[0] < 2:
+        return
+    seg = np.concatenate((found[:, 0], found[:, 2])).astype(np.int64)
+    par = np.concatenate((found[:, 1], found[:, 3]))
+    order = np.lexsort((par, seg))
+    close = (seg[order][1:] == seg[order][:-1]) & (np.diff(par[order]) <= 1e-9)
+    if not close.any():
+        return
+    k = found.shape[0]
+    for sg in sorted(set(seg[order][1:][close].tolist())):
+        rows = np.flatnonzero(seg == sg)
+        keys = []
+        for row in rows.tolist():
+            x = row % k
+            a, b = int(found[x, 0]), int(found[x, 2])
+            ex = _exact_pair(segs, a, b, u)
+            o1, o2, o3, o4, _ = ex[1]
+            keys.append(o3 / (o3 - o4) if row < k else o1 / (o1 - o2))
+        ranked = sorted(range(len(rows)), key=keys.__getitem__)
+        for rank, pos in enumerate(ranked):
+            row = int(rows[pos])
+            found[row % k, 1 if row < k else 3] = (rank + 1) / (len(rows) + 1)
 
 
 def crossings_along(segs: SegmentSet, found: np.ndarray):
@@ -170,8 +263,12 @@ def crossings_along(segs: SegmentSet, found: np.ndarray):
 
 def project(chains: list[tuple[np.ndarray, bool]], rng: np.random.Generator,
             tol: float = PROJECTION_TOL, max_redraws: int = MAX_REDRAWS,
-            where: str = "") -> Projection:
+            where: str = "", directions: int = 1) -> Projection:
     """Project closed chains along a generic random direction and build the PD code.
+
+    With ``directions`` above 1, that many generic directions are drawn and
+    the one whose projection has the fewest crossings is kept (the first of
+    equals), so the choice depends only on the generator's seed.
 
     Parameters
     ----------
@@ -182,8 +279,11 @@ def project(chains: list[tuple[np.ndarray, bool]], rng: np.random.Generator,
     tol : float
         Degeneracy margin (see the module docstring).
     max_redraws : int
+        Degenerate directions rejected (in all) before giving up.
     where : str
         For error messages.
+    directions : int
+        Generic directions compared (fewest crossings wins).
 
     Returns
     -------
@@ -215,21 +315,32 @@ def project(chains: list[tuple[np.ndarray, bool]], rng: np.random.Generator,
         if not closed:
             raise CurveError("only closed chains can be projected to a diagram; close open "
                              "chains first (knotsift.curves.closure)", where=where or None)
+    if isinstance(directions, bool) or not isinstance(directions, int) or directions < 1:
+        raise ValueError(f"directions must be a positive integer, got {directions!r}")
     segs = segment_set(chains)
-    for attempt in range(max_redraws):
+    best = None
+    redraws = 0
+    seen = 0
+    while seen < directions and redraws < max_redraws:
         u = random_direction(rng)
         found = _crossings(segs, u, tol)
         if found is None:
+            redraws += 1
             continue
-        diagram, comps = _pd_code(segs, found, len(chains))
-        return Projection(diagram, u, np.stack(
-            (np.where(found[:, 4] > 0, found[:, 0], found[:, 2]),
-             np.where(found[:, 4] > 0, found[:, 2], found[:, 0])), axis=1).astype(np.int64)
-            if found.size else np.zeros((0, 2), dtype=np.int64),
-            found[:, 5].astype(np.int64), segs.chain, comps, attempt)
-    raise CurveError(f"no generic projection found in {max_redraws} random directions: "
-                     "segments of the curve (nearly) touch, or the curve is degenerate",
-                     where=where or None)
+        seen += 1
+        if best is None or found.shape[0] < best[1].shape[0]:
+            best = (u, found)
+    if best is None:
+        raise CurveError(f"no generic projection found in {max_redraws} random directions: "
+                         "segments of the curve meet, or the curve is degenerate",
+                         where=where or None)
+    u, found = best
+    diagram, comps = _pd_code(segs, found, len(chains))
+    return Projection(diagram, u, np.stack(
+        (np.where(found[:, 4] > 0, found[:, 0], found[:, 2]),
+         np.where(found[:, 4] > 0, found[:, 2], found[:, 0])), axis=1).astype(np.int64)
+        if found.size else np.zeros((0, 2), dtype=np.int64),
+        found[:, 5].astype(np.int64), segs.chain, comps, redraws)
 
 
 def _pd_code(segs: SegmentSet, found: np.ndarray, n_chains: int

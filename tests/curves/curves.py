@@ -31,7 +31,25 @@ __all__ = [
     "hopf_link",
     "torus_link",
     "unit_bonds",
+    "random_polygon",
 ]
+
+
+def random_polygon(n: int, rng: np.random.Generator, sweeps: int = 1) -> np.ndarray:
+    """A seeded equilateral random polygon from the benchmarks' exact sampler.
+
+    The sampler lives in bench/random_polygons.py (crankshaft moves keep every
+    bond length; Millett 1994, from memory) and is loaded from there, so tests
+    and benchmarks share one ensemble.
+    """
+    import importlib.util
+    from pathlib import Path
+
+    path = Path(__file__).resolve().parents[2] / "bench" / "random_polygons.py"
+    spec = importlib.util.spec_from_file_location("random_polygons", path)
+    module = importlib.util.module_from_spec(spec)
+    spec.loader.exec_module(module)
+    return module.random_polygon(n, rng, sweeps=sweeps)
 
 
 def torus_knot(p: int, q: int, n: int, R: float = 2.0, r: float = 1.0) -> np.ndarray:

@@ -83,8 +83,8 @@ def test_offset_beyond_float_precision():
 
 
 def test_self_passage_is_an_error():
-    """Two non-adjacent segments closer than the contact tolerance: the type is not defined."""
-    x = np.array([[0.0, 0, 0], [2, 0, 0], [2, 2, 0], [1, 2, 0], [1, -1, 1e-6], [0, -1, 1]])
+    """Two non-adjacent segments that meet: the type is not defined."""
+    x = np.array([[0.0, 0, 0], [2, 0, 0], [2, 2, 0], [1, 2, 0], [1, -1, 0], [0, -1, 1]])
     with pytest.raises(CurveError, match="passes through itself") as info:
         check_no_contact([(x, True)], ["A"], where="run.xyz, frame 2")
     assert "beads 0-1" in str(info.value) and "beads 3-4" in str(info.value)

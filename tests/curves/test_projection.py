@@ -4,12 +4,12 @@ from __future__ import annotations
 
 import numpy as np
 import pytest
-
 from knotsift.curves.frame import Chain, prepare_chains
 from knotsift.curves.projection import project
 from knotsift.invariants.fingerprint import fingerprint
 from knotsift.invariants.jones import jones_polynomial
 from knotsift.laurent import Laurent
+
 from tests.curves.curves import (
     figure_eight,
     hopf_link,
@@ -178,3 +178,67 @@ def test_projection_refuses_open_chains():
 
     with pytest.raises(CurveError, match="close open chains"):
         project([(units(figure_eight(50)), False)], np.random.default_rng(0))
+
+
+def test_several_directions_keep_the_fewest_crossings():
+    """With k directions the kept projection has the fewest crossings of the k, same type."""
+    x = units(moved(right_torus_knot(3, 4, 240), np.random.default_rng(8)))
+    singles = []
+    rng = np.random.default_rng(4)
+    for _ in range(5):
+        singles.append(project([(x, True)], rng).diagram)
+    best = project([(x, True)], np.random.default_rng(4), directions=5).diagram
+    assert best.number_of_crossings() == min(d.number_of_crossings() for d in singles)
+    assert fingerprint(best).key() == fingerprint(singles[0]).key()
+    again = project([(x, True)], np.random.default_rng(4), directions=5).diagram
+    assert again == best
+
+
+def test_directions_must_be_positive():
+    with pytest.raises(ValueError, match="directions"):
+        project([(units(figure_eight(50)), True)], np.random.default_rng(0), directions=0)
+
+
+def test_passages_closer_than_float_resolution_are_ordered_exactly():
+    """Two rings cross a long segment 1e-12 apart: the order along it is the true order.
+
+    Ring C is ring B moved by 1e-12 along the segment's direction, so C's
+    crossing comes after B's along the segment (common practice: a
+    translation moves every crossing with it).
+    """
+    from knotsift.curves.contact import segment_set
+    from knotsift.curves.projection import _crossings
+
+    a = np.array([[0.0, 0, 0], [10, 0, 0], [5, -5, 0]])
+    b = np.array([[5.0, -1, 1], [5, 1, 1], [5, 0, 5]])
+    c = b + np.array([1e-12, 0, 0])
+    segs = segment_set([(a, True), (b, True), (c, True)])
+    u = np.array([0.1, 0.2, 1.0])
+    found = _crossings(segs, u, 1e-9)
+    on_a = []
+    for row in found:
+        for seg_col, par_col, other_col in ((0, 1, 2), (2, 3, 0)):
+            if int(row[seg_col]) == 0:
+                on_a.append((row[par_col], int(segs.chain[int(row[other_col])])))
+    on_a.sort()
+    chains = [ch for _, ch in on_a]
+    assert sorted(chains) == [1, 1, 2, 2]
+    # along segment 0 (running +x) each crossing of B comes just before C's twin
+    first_b = chains.index(1)
+    assert chains[first_b + 1] == 2
+
+
+def test_straight_runs_of_beads_are_not_degenerate():
+    """Collinear beads (a square ring, ten beads a side) project at once, without a redraw.
+
+    Segments on one straight line are collinear in every projection, yet
+    meet only at shared beads: no direction is degenerate (common practice).
+    """
+    side = np.linspace(0, 1, 10, endpoint=False)[:, None]
+    corners = np.array([[0.0, 0, 0], [1, 0, 0], [1, 1, 0], [0, 1, 0]])
+    x = np.concatenate([a + side * (b - a) for a, b in zip(corners, np.roll(corners, -1, 0),
+                                                               strict=True)])
+    for seed in range(3):
+        proj = project([(units(x), True)], np.random.default_rng(seed))
+        assert proj.redraws == 0
+        assert proj.diagram.number_of_crossings() == 0
