@@ -63,7 +63,7 @@ def worker(n: int, frames: int, seed: int, seconds_cap: float | None,
     if not contact_check:  # phantom polygons: measure the invariant path past near approaches
         import knotsift.curves.pipeline as pipeline
 
-        pipeline.check_no_contact = lambda *a, **k: None
+        pipeline.check_no_contact = lambda *a, **k: []
 
     class Cap(Exception):
         pass
