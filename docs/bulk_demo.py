@@ -65,7 +65,7 @@ def main() -> None:
             files.append(str(path))
         out = str(tmp / "rings.sqlite")
         knotsift("classify", *files, "--out", out, "--quiet")
-        knotsift("summarise", out, "--by", "n_beads", "--mirrors", "merge",
+        knotsift("summarise", out, "--by", "n_beads", "--mirrors", "merge", "--log",
                  "--plot", str(DOCS / "bulk_spectrum.png"),
                  "--plot-length", str(DOCS / "bulk_punknot.png"))
 

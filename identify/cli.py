@@ -310,6 +310,12 @@ def _parser() -> argparse.ArgumentParser:
     from .curves.commands import register as register_curve  # knots in 3D coordinates
 
     register_curve(sub)
+
+    from .drawing.commands import register as register_draw  # pictures of diagrams
+    from .drawing.commands import register_report  # the HTML report of a classify run
+
+    register_draw(sub, NOTATION_CHOICES)
+    register_report(sub)
     return p
 
 

@@ -475,6 +475,7 @@ def identify_diagram(diagram: Diagram, table: ReferenceTable | None = None,
     table = table or open_table()
     result = IdentifyResult(status="not in table", source=source, notation=notation,
                             crossings_input=diagram.number_of_crossings())
+    result.diagram = diagram  # kept for result.draw() and notebooks, not in the JSON
     given = staged is not None and simplified is not None
     staged = staged if given else Staged()
     with item_budget(budget):

@@ -9,6 +9,7 @@ from __future__ import annotations
 from dataclasses import dataclass, field
 
 from .display import ResultValues
+from .errors import KnotsiftError
 
 __all__ = ["Candidate", "IdentifyResult", "STATUSES", "CHIRALITIES", "PRIMALITIES",
            "DECOMPOSITIONS", "JSON_SCHEMA_VERSION"]
@@ -101,6 +102,8 @@ class IdentifyResult(ResultValues):
     cost: dict = field(default_factory=dict)
     #: What the resolutions range over, for the text report.
     resolved_over: str = "the uncertain crossings"
+    #: The diagram that was identified (not part of the JSON); drawn by :meth:`draw`.
+    diagram: object = field(default=None, repr=False, compare=False)
 
     @property
     def name(self) -> str | None:
@@ -202,3 +205,43 @@ class IdentifyResult(ResultValues):
         for note in self.notes:
             lines.append(f"  note: {note}")
         return "\n".join(lines)
+
+    # -- pictures ---------------------------------------------------------------
+    def draw(self, path=None, *, simplified: bool = False, seed: int = 0, **options):
+        """Draw the identified diagram: a matplotlib ``Figure``, or a file when ``path`` is given.
+
+        ``options`` are those of :func:`knotsift.drawing.figures.draw_diagram`
+        (``arrows``, ``signs``, ``labels``, ``title``).
+
+        Raises
+        ------
+        DrawingError
+            When the result holds no diagram (an error, or a row read back from a file).
+        """
+        from .drawing.figures import draw_diagram
+        from .drawing.render import DrawingError
+
+        if self.diagram is None:
+            raise DrawingError("this result holds no diagram to draw (an error, or a result "
+                               "read back from a file)")
+        options.setdefault("title", self.name or self.status)
+        return draw_diagram(self.diagram, path, simplified=simplified, seed=seed, **options)
+
+    def _repr_svg_(self) -> str | None:
+        """The diagram as SVG, so that a notebook shows the result as a picture."""
+        if self.diagram is None:
+            return None
+        from .drawing.layout import layout_diagram
+        from .drawing.render import svg_text
+
+        text = svg_text([(self.name or self.status, layout_diagram(self.diagram))])
+        return text[text.index("<svg"):]
+
+    def _repr_html_(self) -> str:
+        """The table of values (:class:`knotsift.display.ResultValues`) and the drawn diagram."""
+        table = ResultValues._repr_html_(self)
+        try:
+            svg = self._repr_svg_()
+        except KnotsiftError:  # a diagram that cannot be drawn still leaves the table
+            svg = None
+        return table + (f'<div style="max-width:18em">{svg}</div>' if svg else "")

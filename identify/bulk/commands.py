@@ -68,7 +68,7 @@ def _cmd_classify(args) -> int:
 def _cmd_summarise(args) -> int:
     from .plots import plot_spectrum, plot_unknot_probability
     from .resume import ResumeError
-    from .summary import knot_spectrum, read_results, spectrum_text, unknot_fit
+    from .summary import knot_spectrum, read_results, row_unit, spectrum_text, unknot_fit
 
     try:
         df = read_results(args.out)
@@ -91,7 +91,8 @@ def _cmd_summarise(args) -> int:
     if args.plot:
         written.append(str(plot_spectrum(
             spec, args.plot, group_title=_GROUP_TITLES.get(args.by, args.by)
-            or ("condition" if args.by_filename else None))))
+            or ("condition" if args.by_filename else None), unit=row_unit(df),
+            mirrors=args.mirrors, log_scale=args.log)))
     if args.plot_length:
         if fit is None:
             print(f"knotsift summarise: no P(unknot) plot: {fit_error}", file=sys.stderr)
@@ -107,7 +108,7 @@ def _cmd_summarise(args) -> int:
         print(spectrum_text(spec))
         if fit:
             print(f"P(unknot) = exp(-N/N0): N0 = {fit['N0']:.4g} +- {fit['N0_error']:.2g} "
-                  f"({fit['method']}, {len(fit['points'])} lengths)")
+                  f"(one standard error; {fit['method']}, {len(fit['points'])} lengths)")
         elif fit_error:
             print(f"no P(unknot) fit: {fit_error}")
         for w in written:
@@ -187,6 +188,8 @@ def register(sub, notation_choices) -> None:
                         "weighted least squares on log P")
     s.add_argument("--plot", metavar="FILE",
                    help="write the spectrum bar chart (.png, .svg or .pdf)")
+    s.add_argument("--log", action="store_true",
+                   help="logarithmic fraction axis on the spectrum chart (rare types readable)")
     s.add_argument("--plot-length", metavar="FILE",
                    help="write P(unknot) against chain length with the fit (.png, .svg, .pdf)")
     s.add_argument("--json", action="store_true", help="machine-readable output")

@@ -13,7 +13,8 @@ from pathlib import Path
 
 from ..errors import KnotsiftError
 
-__all__ = ["plot_spectrum", "plot_unknot_probability", "knot_label_tex"]
+__all__ = ["plot_spectrum", "plot_unknot_probability", "spectrum_figure", "unknot_figure",
+           "knot_label_tex"]
 
 _STYLE = {
     "font.size": 9,
@@ -63,8 +64,37 @@ def _save(fig, path) -> Path:
     return path
 
 
+def _is_ordered(groups) -> bool:
+    """True when every group label reads as a number (chain lengths, temperatures, ...)."""
+    try:
+        [float(g) for g in groups]
+    except (TypeError, ValueError):
+        return False
+    return len(groups) > 1
+
+
+def _group_colours(groups) -> list:
+    """Categorical colours, or a sequential map (light to dark) for ordered groups."""
+    if not _is_ordered(groups):
+        return [_COLOURS[k % len(_COLOURS)] for k in range(len(groups))]
+    from matplotlib import colormaps
+
+    cmap = colormaps["viridis"]
+    n = len(groups)
+    return [cmap(0.85 - 0.75 * k / max(n - 1, 1)) for k in range(n)]
+
+
+def spectrum_figure(spec, *, top: int = 12, title: str | None = None,
+                    group_title: str | None = None, unit: str = "chains",
+                    mirrors: str = "keep", log_scale: bool = False):
+    """The spectrum bar chart as a matplotlib ``Figure`` (see :func:`plot_spectrum`)."""
+    return _spectrum(spec, top=top, title=title, group_title=group_title, unit=unit,
+                     mirrors=mirrors, log_scale=log_scale)
+
+
 def plot_spectrum(spec, path, *, top: int = 12, title: str | None = None,
-                  group_title: str | None = None) -> Path:
+                  group_title: str | None = None, unit: str = "chains",
+                  mirrors: str = "keep", log_scale: bool = False) -> Path:
     """Bar chart of the knot spectrum: fraction of each type with its Wilson 95% interval.
 
     Parameters
@@ -80,15 +110,26 @@ def plot_spectrum(spec, path, *, top: int = 12, title: str | None = None,
     title : str, optional
     group_title : str, optional
         Title of the legend of the groups (the grouping column).
+    unit : str
+        What a row is: ``chains`` (trajectories) or ``diagrams`` (codes).
+    mirrors : {"keep", "merge"}
+        How the spectrum counted mirror images; ``merge`` is said on the chart.
+    log_scale : bool
+        A logarithmic fraction axis, so that rare types stay readable.
 
     Returns
     -------
     pathlib.Path
     """
-    from ..extras import require
+    fig = _spectrum(spec, top=top, title=title, group_title=group_title, unit=unit,
+                    mirrors=mirrors, log_scale=log_scale)
+    return _save(fig, path)
 
-    matplotlib = require("matplotlib", "plots", "drawing figures")
-    matplotlib.use("Agg", force=False)
+
+def _spectrum(spec, *, top, title, group_title, unit, mirrors, log_scale):
+    from ..drawing.render import require_matplotlib
+
+    require_matplotlib()
     from matplotlib import rc_context
     from matplotlib.figure import Figure
 
@@ -101,6 +142,8 @@ def plot_spectrum(spec, path, *, top: int = 12, title: str | None = None,
     shown = sorted(order.index[:top], key=lambda t: _type_key(str(t)))
     hidden = int(order.iloc[top:].sum()) if len(order) > top else 0
     groups = list(dict.fromkeys(spec["group"]))
+    colours = _group_colours(groups)
+    ordered = _is_ordered(groups)
     with rc_context(_STYLE):
         width_in = min(7.0, max(3.4, 0.45 * len(shown) * max(1, len(groups) ** 0.5) + 1.2))
         fig = Figure(figsize=(width_in, 2.8), layout="constrained")
@@ -120,25 +163,50 @@ def plot_spectrum(spec, path, *, top: int = 12, title: str | None = None,
             total = int(part["total"].iloc[0])
             label = f"{g} (n = {total})" if len(groups) > 1 else None
             ax.bar(xs, ys, bar_w * 0.92, yerr=[lo, hi], capsize=2, label=label,
-                   color=_COLOURS[gi % len(_COLOURS)], edgecolor="none",
+                   color=colours[gi], edgecolor="none",
                    error_kw={"elinewidth": 0.8, "capthick": 0.8, "ecolor": "#222222"})
         ax.set_xticks(range(len(shown)), [knot_label_tex(str(t)) for t in shown],
                       rotation=45 if len(shown) > 6 else 0,
                       ha="right" if len(shown) > 6 else "center")
         ax.set_xlim(-0.6, len(shown) - 0.4)
-        ax.set_ylabel("fraction of chains")
-        ax.set_ylim(0, min(1.0, max(spec["high"]) * 1.08) or 1.0)
+        ax.set_ylabel(f"fraction of {unit}")
+        if log_scale:
+            positive = spec.loc[spec["low"] > 0, "low"]
+            floor = float(positive.min()) * 0.5 if len(positive) else 1e-4
+            ax.set_yscale("log")
+            ax.set_ylim(max(floor, 1e-6), 1.2)
+            _log_ticks(ax, floor)
+        else:
+            ax.set_ylim(0, min(1.0, max(spec["high"]) * 1.08) or 1.0)
         ax.grid(axis="y", linewidth=0.4, alpha=0.5)
         ax.set_axisbelow(True)
         if len(groups) > 1:
-            fig.legend(loc="outside upper center", ncols=min(len(groups), 4), frameon=False,
-                       title=group_title)
+            if ordered:   # one column, in the groups' natural order from top to bottom
+                fig.legend(loc="outside right upper", ncols=1, frameon=False,
+                           title=group_title)
+            else:
+                fig.legend(loc="outside upper center", ncols=min(len(groups), 4),
+                           frameon=False, title=group_title)
         n_all = int(spec.drop_duplicates("group")["total"].sum())
-        note = f"error bars: Wilson 95% intervals; n = {n_all}"
+        lines = [f"bars: fraction of {unit} (n = {n_all}); error bars: Wilson 95% intervals"]
         if hidden:
-            note += f"; {hidden} rows of rarer types not shown"
+            lines.append(f"{hidden} {unit} of rarer types not shown")
+        if mirrors == "merge":
+            lines.append("mirror images merged: each bar counts a knot and its mirror image")
+        note = "\n".join(lines)
         ax.set_title(title or note, loc="left", fontsize=8, color="#444444")
-        return _save(fig, path)
+        return fig
+
+
+def _log_ticks(ax, low: float) -> None:
+    """Readable ticks on a log probability axis: 1-2-5 per decade, more within one decade."""
+    from matplotlib.ticker import FuncFormatter, LogLocator, NullFormatter
+
+    subs = (1.0, 2.0, 3.0, 5.0, 7.0) if low > 0.1 else (1.0, 2.0, 5.0)
+    ax.yaxis.set_major_locator(LogLocator(subs=subs, numticks=30))
+    ax.yaxis.set_minor_locator(LogLocator(subs="auto", numticks=30))
+    ax.yaxis.set_major_formatter(FuncFormatter(lambda v, _: f"{v:g}"))
+    ax.yaxis.set_minor_formatter(NullFormatter())
 
 
 def plot_unknot_probability(fit: dict, path, *, title: str | None = None,
@@ -158,10 +226,18 @@ def plot_unknot_probability(fit: dict, path, *, title: str | None = None,
     -------
     pathlib.Path
     """
-    from ..extras import require
+    return _save(unknot_figure(fit, title=title, log_scale=log_scale), path)
 
-    matplotlib = require("matplotlib", "plots", "drawing figures")
-    matplotlib.use("Agg", force=False)
+
+def unknot_figure(fit: dict, *, title: str | None = None, log_scale: bool = True):
+    """P(unknot) against N with the fit, as a matplotlib ``Figure``.
+
+    The points carry Wilson 95% intervals; the fitted N0 is given with one
+    standard error, and the legend says which is which.
+    """
+    from ..drawing.render import require_matplotlib
+
+    require_matplotlib()
     import numpy as np
     from matplotlib import rc_context
     from matplotlib.figure import Figure
@@ -175,23 +251,20 @@ def plot_unknot_probability(fit: dict, path, *, title: str | None = None,
         fig = Figure(figsize=(3.4, 2.6), layout="constrained")
         ax = fig.add_subplot()
         ax.errorbar(N, p, yerr=[p - lo, hi - p], fmt="o", ms=3.5, capsize=2,
-                    color=_COLOURS[0], elinewidth=0.8, label="classified chains (Wilson 95%)")
+                    color=_COLOURS[0], elinewidth=0.8,
+                    label="fraction unknotted, Wilson 95% interval")
         grid = np.linspace(0, N.max() * 1.05, 200)
         n0, err = fit["N0"], fit["N0_error"]
         digits = max(0, 1 - int(math.floor(math.log10(err)))) if err > 0 else 1
         ax.plot(grid, np.exp(-grid / n0), color=_COLOURS[1], linewidth=1.2,
-                label=rf"$\exp(-N/N_0)$, $N_0 = {n0:.{digits}f} \pm {err:.{digits}f}$")
+                label=rf"$\exp(-N/N_0)$, $N_0 = {n0:.{digits}f} \pm {err:.{digits}f}$"
+                      "\n(\u00b1 one standard error)")
         if log_scale:
             ax.set_yscale("log")
             floor = max(1e-4, min(lo[lo > 0].min() if (lo > 0).any() else 1e-3,
                                   float(np.exp(-grid[-1] / n0))) * 0.7)
             ax.set_ylim(floor, 1.15)
-            from matplotlib.ticker import FuncFormatter, LogLocator, NullFormatter
-
-            ax.yaxis.set_major_locator(LogLocator(subs=(1.0, 2.0, 5.0)))
-            ax.yaxis.set_minor_locator(LogLocator(subs="auto"))
-            ax.yaxis.set_major_formatter(FuncFormatter(lambda v, _: f"{v:g}"))
-            ax.yaxis.set_minor_formatter(NullFormatter())
+            _log_ticks(ax, floor)
         else:
             ax.set_ylim(0, 1.05)
         ax.set_xlim(0, grid[-1])
@@ -202,4 +275,4 @@ def plot_unknot_probability(fit: dict, path, *, title: str | None = None,
         ax.legend(frameon=False, loc="lower left")
         ax.set_title(title or f"{fit['method'].upper()} fit, {len(pts)} lengths", loc="left",
                      fontsize=8, color="#444444")
-        return _save(fig, path)
+        return fig

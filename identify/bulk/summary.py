@@ -20,7 +20,7 @@ import re
 from ..errors import KnotsiftError
 
 __all__ = ["wilson_interval", "Z95", "knot_types", "group_labels", "knot_spectrum",
-           "unknot_points", "unknot_fit", "read_results", "spectrum_text"]
+           "unknot_points", "unknot_fit", "read_results", "spectrum_text", "row_unit"]
 
 #: The two-sided 95% standard normal quantile.
 Z95 = 1.959963984540054
@@ -316,6 +316,12 @@ def read_results(out, table: str = "classifications"):
         sink.close()
 
 
+def row_unit(df) -> str:
+    """What the rows of a run are, in words: ``chains`` (trajectory frames) or ``diagrams``."""
+    kinds = set(df["kind"].dropna()) if "kind" in df.columns else set()
+    return "diagrams" if kinds == {"code"} else "chains"
+
+
 def spectrum_text(spec) -> str:
     """The spectrum as an aligned plain-text table, one block per group."""
     lines = []
@@ -328,5 +334,5 @@ def spectrum_text(spec) -> str:
             if r.type is None:
                 continue
             lines.append(f"  {r.type:<{width}}  {r.count:>7}  {r.fraction:7.2%}   "
-                         f"95% CI {r.low:.2%} - {r.high:.2%}")
+                         f"Wilson 95% interval {r.low:.2%} - {r.high:.2%}")
     return "\n".join(lines)
