@@ -161,7 +161,7 @@ def _cmd_identify(args) -> int:
     from .curves.commands import identify_coordinate_files
     from .errors import KnotsiftError
     from .identification import identify
-    from .result import IdentifyResult
+    from .result import JSON_SCHEMA_VERSION, IdentifyResult
     from .table import open_table
 
     routed = identify_coordinate_files(args)  # FILE.xyz / .pdb / .npy: the 3D pipeline
@@ -173,13 +173,17 @@ def _cmd_identify(args) -> int:
         print("knotsift identify: no input (give a code, --file, --demo, or pipe codes in)",
               file=sys.stderr)
         return 2
+    from .budget import budget_from_args, item_budget
+
+    budget = budget_from_args(args)
     results = []
     for label, text in items:
         try:
             if isinstance(text, KnotsiftError):
                 raise text
-            r = identify(text, args.notation, table=table, neighbours=args.neighbours,
-                         label=label, expect=getattr(args, "expect", None))
+            with item_budget(budget):
+                r = identify(text, args.notation, table=table, neighbours=args.neighbours,
+                             label=label, expect=getattr(args, "expect", None))
         except KnotsiftError as exc:
             if args.debug:
                 raise
@@ -194,10 +198,10 @@ def _cmd_identify(args) -> int:
             if len(items) > 1:
                 print()
     summary = {s: sum(1 for r in results if r.status == s)
-               for s in ("identified", "ambiguous", "not in table", "error")}
+               for s in ("identified", "ambiguous", "not in table", "too complex", "error")}
     summary["total"] = len(results)
     if args.json:
-        json.dump({"schema_version": 1, "results": [r.to_dict() for r in results],
+        json.dump({"schema_version": JSON_SCHEMA_VERSION, "results": [r.to_dict() for r in results],
                    "summary": summary}, sys.stdout, indent=2)
         print()
     elif len(results) > 1 and not getattr(args, "brief", False):
@@ -321,6 +325,9 @@ def _parser() -> argparse.ArgumentParser:
     q.add_argument("--brief", action="store_true",
                    help="one line per item: where, status, answer (tab-separated)")
     q.add_argument("--table", help="use this reference table file instead of the shipped one")
+    from .budget import add_budget_arguments
+
+    add_budget_arguments(q)
     from .curves.commands import add_reader_options  # for 3D and MD files given to identify
 
     add_reader_options(q)

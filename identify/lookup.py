@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from .alexander_factors import normalise_alexander
+from .invariants.alexander import normalise_alexander
 from .errors import PolynomialError
 from .laurent import Laurent
 from .table import ReferenceTable

@@ -11,11 +11,18 @@ from dataclasses import dataclass, field
 from .display import ResultValues
 from .errors import KnotsiftError
 
-__all__ = ["Candidate", "IdentifyResult", "STATUSES", "CHIRALITIES", "JSON_SCHEMA_VERSION"]
+__all__ = ["Candidate", "IdentifyResult", "STATUSES", "CHIRALITIES", "PRIMALITIES",
+           "DECOMPOSITIONS", "JSON_SCHEMA_VERSION"]
 
-JSON_SCHEMA_VERSION = 1
-STATUSES = ("identified", "ambiguous", "not in table", "error")
-CHIRALITIES = ("same", "mirror", "amphichiral", "undetermined")
+JSON_SCHEMA_VERSION = 2
+#: "too complex": the item's wall-time budget ran out (what was computed is kept).
+STATUSES = ("identified", "ambiguous", "not in table", "too complex", "error")
+#: "per factor": a connected sum found from invariants; each factor has its own chirality.
+CHIRALITIES = ("same", "mirror", "amphichiral", "undetermined", "per factor")
+#: Values of ``IdentifyResult.primality``.
+PRIMALITIES = ("prime", "composite", "unknot", "unknown")
+#: Values of ``IdentifyResult.decomposition``: how a connected sum was seen.
+DECOMPOSITIONS = ("diagram", "invariants")
 
 
 def _notation_words(notation: str, how: str) -> str:
@@ -39,6 +46,14 @@ class Candidate:
     crossing_number: int
     kind: str
     aliases: list[str] = field(default_factory=list)
+    factors: list[dict] | None = None
+
+    @property
+    def shown(self) -> str:
+        """The label when chirality is known (per factor for sums), else the name."""
+        if self.chirality in ("same", "mirror", "per factor"):
+            return self.label
+        return self.name
     #: What the verdict rests on: "invariants" (a match: evidence), or for the
     #: unknot "trivial diagram" (the diagram simplified to no crossings: proof).
     basis: str = "invariants"
@@ -53,6 +68,7 @@ class Candidate:
             "crossing_number": self.crossing_number,
             "kind": self.kind,
             "aliases": list(self.aliases),
+            "factors": None if self.factors is None else [dict(f) for f in self.factors],
         }
 
 
@@ -78,6 +94,13 @@ class IdentifyResult(ResultValues):
     neighbours: list[dict] | None = None
     error: str | None = None
     link: dict | None = None
+    type_key: str | None = None
+    crossing_bounds: list[int | None] | None = None
+    primality: str | None = None
+    factors: list[dict] | None = None
+    decomposition: str | None = None
+    remainder: dict | None = None
+    cost: dict = field(default_factory=dict)
     #: What the resolutions range over, for the text report.
     resolved_over: str = "the uncertain crossings"
     #: The diagram that was identified (not part of the JSON); drawn by :meth:`draw`.
@@ -87,8 +110,7 @@ class IdentifyResult(ResultValues):
     def name(self) -> str | None:
         """The identified knot's label (with the mirror mark), or None."""
         if self.status == "identified" and self.candidates:
-            c = self.candidates[0]
-            return c.name if c.chirality in ("amphichiral", "undetermined") else c.label
+            return self.candidates[0].shown
         return None
 
     def to_dict(self) -> dict:
@@ -108,6 +130,14 @@ class IdentifyResult(ResultValues):
             "notes": list(self.notes),
             "error": self.error,
             "link": self.link,
+            "type_key": self.type_key,
+            "crossing_bounds": None if self.crossing_bounds is None
+            else list(self.crossing_bounds),
+            "primality": self.primality,
+            "factors": None if self.factors is None else [dict(f) for f in self.factors],
+            "decomposition": self.decomposition,
+            "remainder": self.remainder,
+            "cost": dict(self.cost),
         }
 
     def to_text(self) -> str:
@@ -122,9 +152,11 @@ class IdentifyResult(ResultValues):
                 "mirror": "mirror image of the table's reference diagram",
                 "amphichiral": "amphichiral (equal to its mirror image)",
                 "undetermined": "chirality undetermined by these invariants",
+                "per factor": "connected sum found from the invariants (chirality per "
+                              "factor)",
             }[c.chirality]
             alias = f" ({', '.join(c.aliases)})" if c.aliases else ""
-            shown = c.label if c.chirality in ("same", "mirror") else c.name
+            shown = c.shown
             if c.name == "0_1":
                 chir = {"trivial diagram": "proven, the diagram simplifies to no crossings",
                         "invariants": "by its invariants only (evidence, not proof)"}.get(
@@ -134,11 +166,22 @@ class IdentifyResult(ResultValues):
             shown = ", ".join(f"{r['result']} ({r['fraction']:.0%})" for r in self.resolutions)
             lines.append(f"{head}ambiguous over {self.resolved_over}: {shown}")
         elif self.status == "ambiguous":
-            names = ", ".join(c.label if c.chirality in ("same", "mirror") else c.name
-                              for c in self.candidates)
+            names = ", ".join(c.shown for c in self.candidates)
             lines.append(f"{head}ambiguous: {names}")
+        elif self.status == "too complex":
+            lines.append(f"{head}too complex: {self.error}")
         else:
             lines.append(f"{head}not in the table")
+        if self.type_key and self.status != "identified":
+            kind = f", {self.primality}" if self.primality not in (None, "unknown") else ""
+            lines.append(f"  type key: {self.type_key}{kind}")
+        if self.crossing_bounds is not None:
+            lo, hi = self.crossing_bounds
+            if lo is not None and lo == hi:
+                lines.append(f"  crossing number: {lo}")
+            else:
+                lines.append(f"  crossing number: {lo if lo is not None else '?'} to "
+                             f"{hi if hi is not None else '?'}")
         if self.notation:
             lines.append(f"  read as: {_notation_words(self.notation, self.notation_how)}")
         if self.crossings_input is not None:

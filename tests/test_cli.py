@@ -27,8 +27,8 @@ def test_identify_json(capsys):
     code, out, _ = run(capsys, "identify", "--json", "s1^3", "s1^-3")
     data = json.loads(out)
     assert code == 0
-    assert data["summary"] == {"identified": 2, "ambiguous": 0, "not in table": 0, "error": 0,
-                               "total": 2}
+    assert data["summary"] == {"identified": 2, "ambiguous": 0, "not in table": 0,
+                               "too complex": 0, "error": 0, "total": 2}
     assert [r["name"] for r in data["results"]] == ["3_1", "3_1*"]
     assert data["results"][1]["candidates"][0]["chirality"] == "mirror"
 

@@ -9,10 +9,7 @@ what is already there (:mod:`.resume`), run on local processes or Dask
 
 from __future__ import annotations
 
-from .rows import COLUMNS, classify_item
-from .runner import RunReport, classify
-from .sources import Item, iter_items
-from .summary import knot_spectrum, unknot_fit, wilson_interval
+from importlib import import_module
 
 __all__ = [
     "classify",
@@ -25,3 +22,14 @@ __all__ = [
     "unknot_fit",
     "wilson_interval",
 ]
+
+# Loaded on first use, so that the command line starts without them.
+_WHERE = {"classify": "runner", "RunReport": "runner", "Item": "sources",
+          "iter_items": "sources", "classify_item": "rows", "COLUMNS": "rows",
+          "knot_spectrum": "summary", "unknot_fit": "summary", "wilson_interval": "summary"}
+
+
+def __getattr__(name: str):
+    if name in _WHERE:
+        return getattr(import_module(f".{_WHERE[name]}", __name__), name)
+    raise AttributeError(f"module {__name__!r} has no attribute {name!r}")

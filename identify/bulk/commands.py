@@ -49,7 +49,8 @@ def _cmd_classify(args) -> int:
                               core=args.core, beads_per_chain=args.beads_per_chain,
                               table=args.table, topology=args.topology, select=args.select,
                               chains_by=args.chains_by,
-                              box=tuple(args.box) if args.box else None)
+                              box=tuple(args.box) if args.box else None,
+                              **_budget_options(args))
     try:
         report = classify(args.input, args.out, fmt=args.format, codes_column=args.codes_column,
                           label_column=args.label_column, options=options,
@@ -188,6 +189,9 @@ def register(sub, notation_choices) -> None:
     c.add_argument("-q", "--quiet", action="store_true",
                    help="no progress line; print the summary only if some items failed")
     c.add_argument("--json", action="store_true", help="print the run summary as JSON")
+    from ..budget import add_budget_arguments
+
+    add_budget_arguments(c)
     c.set_defaults(func=_cmd_classify)
 
     s = sub.add_parser("summarise", help="knot spectrum of a classify output, with plots")
@@ -213,3 +217,12 @@ def register(sub, notation_choices) -> None:
                    help="write P(unknot) against chain length with the fit (.png, .svg, .pdf)")
     s.add_argument("--json", action="store_true", help="machine-readable output")
     s.set_defaults(func=_cmd_summarise)
+
+
+def _budget_options(args) -> dict:
+    """The budget options of a parsed classify command, as ClassifyOptions fields."""
+    from ..budget import budget_from_args
+
+    b = budget_from_args(args)
+    return {"jones": b.jones, "jones_memory": b.jones_memory, "jones_seconds": b.jones_seconds,
+            "wall_seconds": b.wall_seconds}

@@ -30,7 +30,7 @@ COLUMNS: tuple[tuple[str, str, str], ...] = (
     ("n_beads", "int", "number of beads (curves)"),
     ("closure", "text", "how an open chain was closed: direct, far, stochastic"),
     ("status", "text", "identified, ambiguous, not in table, undetermined (no majority "
-                       "over closures), error"),
+                       "over closures), too complex (wall-time budget ran out), error"),
     ("knot", "text", "identified label with the mirror mark, e.g. 3_1*"),
     ("knot_type", "text", "identified knot without chirality, e.g. 3_1"),
     ("chirality", "text", "same, mirror, amphichiral or undetermined"),
@@ -44,6 +44,13 @@ COLUMNS: tuple[tuple[str, str, str], ...] = (
     ("signature", "int", "signature (right-handed trefoil -2)"),
     ("rho_1", "text", "perturbed Alexander invariant rho_1, canonical text (knots)"),
     ("homology", "text", "homology of the double branched cover, e.g. Z/3+Z/3"),
+    ("type_key", "text", "key of the knot type from the always-computed invariants (README)"),
+    ("type_key_unoriented", "text", "the type key shared with the mirror image"),
+    ("primality", "text", "prime, composite, unknot or unknown"),
+    ("factors", "text", "JSON [{name, label, chirality}] of a connected sum's factors"),
+    ("crossing_lower", "int", "lower bound of the crossing number"),
+    ("crossing_upper", "int", "upper bound of the crossing number"),
+    ("jones_status", "text", "computed, over budget, stopped, not needed, not requested"),
     ("resolutions", "text", "JSON distribution over uncertain crossings (codes)"),
     ("closure_spectrum", "text", "JSON [{type, count, fraction}] over closures (open chains)"),
     ("core_start", "int", "first bead of the knotted core (with --core)"),
@@ -88,6 +95,8 @@ class ClassifyOptions:
         Split each XYZ frame into chains of this many beads.
     table : str, optional
         A reference table file instead of the shipped one.
+    jones, jones_memory, jones_seconds, wall_seconds
+        The cost budget of each item (:class:`knotsift.budget.Budget`).
     topology, select, chains_by, box
         MD trajectories: as for :func:`knotsift.curves.formats.read_frames`.
         Stored with the output only when set.
@@ -101,6 +110,10 @@ class ClassifyOptions:
     core: bool = False
     beads_per_chain: int | None = None
     table: str | None = None
+    jones: str = "auto"
+    jones_memory: int = 1 << 30
+    jones_seconds: float = 20.0
+    wall_seconds: float | None = 60.0
     topology: str | None = None
     select: str | None = None
     chains_by: str = "auto"
@@ -122,6 +135,13 @@ class ClassifyOptions:
             d["box"] = [float(v) for v in d["box"]]
         return d
 
+    def budget(self):
+        """The :class:`knotsift.budget.Budget` of each item."""
+        from ..budget import Budget
+
+        return Budget(jones_memory=self.jones_memory, jones_seconds=self.jones_seconds,
+                      wall_seconds=self.wall_seconds, jones=self.jones)
+
 
 def _empty_row(item, chain: int = 0) -> dict:
     row = dict.fromkeys(COLUMN_NAMES)
@@ -138,6 +158,8 @@ def row_from_result(row: dict, result) -> dict:
     if result.status == "error":
         row["error"] = result.error
         return row
+    if result.status == "too complex":
+        row["error"] = result.error
     cands = result.candidates
     if result.link is not None:  # a code of several components: a link, not a knot
         _link_columns(row, result.status, cands, result.link["components"])
@@ -145,8 +167,7 @@ def row_from_result(row: dict, result) -> dict:
         row["knot"] = result.name
         row["knot_type"] = cands[0].name
         row["chirality"] = cands[0].chirality
-    row["candidates"] = " or ".join(c.label if c.chirality in ("same", "mirror") else c.name
-                                    for c in cands) or None
+    row["candidates"] = " or ".join(c.shown for c in cands) or None
     row["crossings_input"] = result.crossings_input
     row["crossings_simplified"] = result.crossings_simplified
     inv = result.invariants
@@ -159,6 +180,7 @@ def row_from_result(row: dict, result) -> dict:
     row["homology"] = inv.get("homology") or None
     if result.resolutions:
         row["resolutions"] = json.dumps(result.resolutions, sort_keys=True)
+    _key_columns(row, result)
     return row
 
 
@@ -173,6 +195,21 @@ def _link_columns(row: dict, status: str, candidates, components: int) -> None:
     if status == "identified" and candidates:
         row["link_type"] = get(candidates[0], "name")
         row["link_crossings"] = get(candidates[0], "crossing_number")
+
+
+def _key_columns(row: dict, result) -> None:
+    """The type key, primality, factors, crossing bounds and what became of Jones."""
+    from ..type_key import unoriented_type_key
+
+    row["type_key"] = result.type_key
+    row["type_key_unoriented"] = unoriented_type_key(result.invariants) \
+        if result.type_key else None
+    row["primality"] = result.primality
+    if result.factors:
+        row["factors"] = json.dumps(result.factors)
+    if result.crossing_bounds:
+        row["crossing_lower"], row["crossing_upper"] = result.crossing_bounds
+    row["jones_status"] = result.cost.get("jones")
 
 
 def _fail(row: dict, exc: BaseException) -> dict:
@@ -260,7 +297,16 @@ def classify_item(item, options: ClassifyOptions | None = None, table=None) -> l
     """
     from ..table import open_table
 
+    from ..budget import item_budget
+
     options = options or ClassifyOptions()
+    with item_budget(options.budget()):
+        return _classify_item(item, options, table)
+
+
+def _classify_item(item, options: ClassifyOptions, table) -> list[dict]:
+    from ..table import open_table
+
     if item.kind == "frame" and item.error is None:
         try:
             return [_finish(r) for r in _classify_frame(item, options,

@@ -78,14 +78,18 @@ def knot_types(df, mirrors: str = "keep"):
     if mirrors not in ("keep", "merge"):
         raise KnotsiftError(f"mirrors must be 'keep' or 'merge', got {mirrors!r}", value=mirrors)
     name = df["knot"] if mirrors == "keep" else df["knot_type"]
+    key_column = "type_key" if mirrors == "keep" else "type_key_unoriented"
+    keys = df[key_column] if key_column in df.columns else [None] * len(df)
     out = []
-    for status, knot, cands in zip(df["status"], name, df["candidates"], strict=True):
+    for status, knot, cands, key in zip(df["status"], name, df["candidates"], keys,
+                                        strict=True):
         if status == "identified":
             out.append(knot)
         elif status == "ambiguous":
             out.append(cands if isinstance(cands, str) and cands else "ambiguous")
-        elif status in ("not in table", "undetermined"):
-            out.append(status)
+        elif status in ("not in table", "undetermined", "too complex"):
+            # a knot beyond the table is counted by its type key, like a name
+            out.append(key if isinstance(key, str) and key else status)
         else:
             out.append(None)
     import pandas as pd
@@ -141,6 +145,8 @@ def _type_key(t: str):
     m = re.fullmatch(r"(\d+)_(\d+)(\*?)", t)
     if m:
         return (0, int(m.group(1)), int(m.group(2)), m.group(3), t)
+    if t.startswith("K") and "." in t:  # type keys after names and composites
+        return (3, 0, 0, "", t)
     return (1 if "#" in t else 2, 0, 0, "", t)
 
 

@@ -90,13 +90,16 @@ def _cmd_curve(args) -> int:
     check_at_most("closures", args.closures, "--closures")
     table = open_table(args.table)
     frames = parse_frames(args.frames) if args.frames else None
+    from ..budget import budget_from_args, budget_scope
+
     status = 0
     for path in files:
-        code = report_file(path, format=args.format, closed=args.closed, frames=frames,
-                           closure=args.closure, n_closures=args.closures, seed=args.seed,
-                           localise=args.core, table=table, as_json=args.json,
-                           progress=None if not args.quiet else False, brief=args.brief,
-                           **reader_options(args))
+        with budget_scope(budget_from_args(args)):
+            code = report_file(path, format=args.format, closed=args.closed, frames=frames,
+                               closure=args.closure, n_closures=args.closures,
+                               seed=args.seed, localise=args.core, table=table,
+                               as_json=args.json, progress=None if not args.quiet else False,
+                               brief=args.brief, **reader_options(args))
         status = max(status, code)
     return status
 
@@ -138,6 +141,9 @@ def register(sub) -> None:
     add_reader_options(c)
     c.add_argument("--quiet", action="store_true", help="no progress line")
     c.add_argument("--table", help="use this reference table file instead of the shipped one")
+    from ..budget import add_budget_arguments
+
+    add_budget_arguments(c)
     c.set_defaults(func=_cmd_curve)
 
 
@@ -156,11 +162,14 @@ def identify_coordinate_files(args) -> int | None:
     from ..table import open_table
     from .report import report_file
 
+    from ..budget import budget_from_args, budget_scope
+
     table = open_table(getattr(args, "table", None))
     status = 0
     for path in codes:
-        status = max(status, report_file(path, table=table,
-                                         as_json=getattr(args, "json", False),
-                                         brief=getattr(args, "brief", False),
-                                         **reader_options(args)))
+        with budget_scope(budget_from_args(args)):
+            status = max(status, report_file(path, table=table,
+                                             as_json=getattr(args, "json", False),
+                                             brief=getattr(args, "brief", False),
+                                             **reader_options(args)))
     return status

@@ -3,8 +3,11 @@
 This is the one place where coordinates become exact invariants: the
 reduced polygon is projected to a :class:`~knotsift.diagram.Diagram`, which
 is simplified and fingerprinted by the core (:mod:`knotsift.invariants`).
-Fingerprints are cached by the simplified diagram, since many closures of
-one chain give the same small diagram.
+Invariants are computed cheap first within the item's budget
+(:mod:`knotsift.budget`) and cached by the simplified diagram, since many
+closures of one chain give the same small diagram.  No diagram is refused
+for its size: the Alexander polynomial, determinant and signature are
+always computed, the Jones polynomial when the budget allows.
 """
 
 from __future__ import annotations
@@ -14,40 +17,42 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from ..budget import Staged, current_budget, staged_invariants
 from ..diagram import Diagram
-from ..errors import CurveError
 from ..invariants.fingerprint import Fingerprint, fingerprint
 from ..simplify import simplify
 from .kmt import KMT_TOL, kmt_reduce
 from .projection import PROJECTION_TOL, project
 
-__all__ = ["PolygonType", "polygon_type", "cached_fingerprint", "MAX_CROSSINGS",
+__all__ = ["PolygonType", "polygon_type", "cached_fingerprint", "cached_invariants",
            "PROJECTION_DIRECTIONS"]
-
-#: Simplified diagrams with more crossings than this are not fingerprinted:
-#: the invariants' cost grows too fast (a curve this entangled is far beyond
-#: any table anyway).  Raise it at your own risk of memory and time.
-MAX_CROSSINGS = 300
 
 #: Seeded view directions compared per projection; the one with the fewest
 #: crossings is used (bench/bench_simplify.py measures the effect).
 PROJECTION_DIRECTIONS = 3
 
-_CACHE: OrderedDict[Diagram, Fingerprint] = OrderedDict()
+_CACHE: OrderedDict[tuple, Staged] = OrderedDict()
 _CACHE_SIZE = 4096
 
 
-def cached_fingerprint(simple: Diagram) -> Fingerprint:
-    """The fingerprint of an already simplified diagram, cached."""
-    fp = _CACHE.get(simple)
-    if fp is None:
-        fp = fingerprint(simple, simplified=True)
-        _CACHE[simple] = fp
+def cached_invariants(simple: Diagram) -> Staged:
+    """The invariants of an already simplified diagram under the current budget, cached."""
+    budget = current_budget()
+    key = (simple, budget)
+    st = _CACHE.get(key)
+    if st is None:
+        st = staged_invariants(simple, budget=budget)
+        _CACHE[key] = st
         if len(_CACHE) > _CACHE_SIZE:
             _CACHE.popitem(last=False)
     else:
-        _CACHE.move_to_end(simple)
-    return fp
+        _CACHE.move_to_end(key)
+    return st
+
+
+def cached_fingerprint(simple: Diagram) -> Fingerprint:
+    """The fingerprint of an already simplified diagram, cached (Jones None when skipped)."""
+    return cached_invariants(simple).fingerprint()
 
 
 @dataclass
@@ -106,12 +111,6 @@ def polygon_type(chains: list[tuple[np.ndarray, bool]], rng: np.random.Generator
     proj = project(chains, rng, tol=PROJECTION_TOL, where=where, directions=directions)
     d = proj.diagram
     simple = simplify(d) if simplified else d
-    if with_fingerprint and simplified and simple.number_of_crossings() > MAX_CROSSINGS:
-        raise CurveError(
-            f"the reduced curve still projects to {simple.number_of_crossings()} crossings after "
-            f"simplification (limit {MAX_CROSSINGS}); its invariants are not computed (the "
-            "knot is far beyond the table)", value=simple.number_of_crossings(),
-            where=where or None)
     if with_fingerprint:
         fp = cached_fingerprint(simple) if simplified else fingerprint(simple, simplified=True)
     else:

@@ -24,7 +24,7 @@ from .closure import CLOSURES, DEFAULT_CLOSURES, closure_spectrum
 from .contact import check_no_contact
 from .frame import Chain, Frame, FrameFailure, as_chain, prepare_chains
 from .kmt import kmt_reduce
-from .knot_type import polygon_type
+from .knot_type import cached_invariants, polygon_type
 from .projection import project
 
 __all__ = [
@@ -38,12 +38,14 @@ __all__ = [
     "CURVE_NOTATION",
 ]
 
+#: Statuses of a curve result: those of IdentifyResult, and "undetermined"
+#: when no knot type holds a strict majority of the closures.
 #: Statuses of a curve result: those of IdentifyResult, "undetermined" when no
-#: knot type holds a strict majority of the closures, and "depends on missing
+#: knot type holds a strict majority of the closures, "depends on missing
 #: segment" when a chain with gaps changes type with its bridges
-#: (knotsift.curves.gaps).
+#: (knotsift.curves.gaps), and "too complex" when its wall-time budget ran out.
 CURVE_STATUSES = ("identified", "ambiguous", "not in table", "undetermined",
-                  "depends on missing segment", "error")
+                  "depends on missing segment", "too complex", "error")
 CURVE_NOTATION = "3D coordinates"
 
 UNKNOT_NOTE = ("the unknot here means the curve reduced to a diagram whose invariants are "
@@ -212,7 +214,7 @@ class FrameResult(FrameValues):
 
 
 def _is_trivial(fp) -> bool:
-    return fp.components == 1 and fp.jones == 1
+    return fp.components == 1 and fp.jones is not None and fp.jones == 1
 
 
 def _type_label(fp, table) -> str:
@@ -222,9 +224,33 @@ def _type_label(fp, table) -> str:
     if _is_trivial(fp) and not cands:
         return "0_1"
     if not cands:
-        return f"not in table (V = {fp.jones})"
-    shown = [c.label if c.chirality in ("same", "mirror") else c.name for c in cands]
-    return " or ".join(shown)
+        from ..type_key import type_key
+
+        key = type_key(fp.texts())
+        return f"not in table ({key})" if key else f"not in table (V = {fp.jones})"
+    return " or ".join(c.shown for c in cands)
+
+
+def _fingerprint_of(result: IdentifyResult):
+    """The fingerprint behind a result (for the knotted-core search), None if incomplete."""
+    from ..invariants.fingerprint import Fingerprint
+    from ..laurent import Laurent
+
+    inv = result.invariants
+    if not inv.get("determinant") or not inv.get("signature"):
+        return None
+    from ..invariants.double_cover import parse_homology
+
+    hashed = None
+    if inv.get("rho_1_hash") and not inv.get("rho_1"):
+        hashed = tuple(None if v == "-" else int(v) for v in inv["rho_1_hash"].split(","))
+    return Fingerprint(int(inv["components"]),
+                       Laurent.parse(inv["jones"]) if inv.get("jones") else None,
+                       Laurent.parse(inv["alexander"]) if inv.get("alexander") else None,
+                       int(inv["determinant"]), int(inv["signature"]),
+                       Laurent.parse(inv["rho_1"]) if inv.get("rho_1") else None,
+                       parse_homology(inv["homology"]) if inv.get("homology") else (),
+                       hashed)
 
 
 def _check_args(closure: str, n_closures: int) -> None:
@@ -247,9 +273,11 @@ def _identify_prepared(x: np.ndarray, kept: np.ndarray, n_input: int, chain_id: 
     spectrum = None
     rng = np.random.default_rng([seed, 0])
     if closed:
-        typed = polygon_type([(x, True)], rng, where=where)
-        base = identify_diagram(typed.diagram, table, source=label, notation=CURVE_NOTATION)
-        target = typed.fingerprint
+        # one pass: simplified once here, invariants computed once in identify_diagram
+        typed = polygon_type([(x, True)], rng, where=where, with_fingerprint=False)
+        base = identify_diagram(typed.diagram, table, source=label, notation=CURVE_NOTATION,
+                                simplified=typed.simplified)
+        target = _fingerprint_of(base)
         geometry.update(vertices_reduced=typed.vertices_reduced,
                         crossings_projected=typed.crossings,
                         crossings_simplified=typed.simplified.number_of_crossings(),
@@ -268,7 +296,8 @@ def _identify_prepared(x: np.ndarray, kept: np.ndarray, n_input: int, chain_id: 
                             closures_reused=sp.reused)
         if sp.dominant is not None:
             base = identify_diagram(sp.dominant.diagram, table, source=label,
-                                    notation=CURVE_NOTATION)
+                                    notation=CURVE_NOTATION, simplified=sp.dominant.diagram,
+                                    staged=cached_invariants(sp.dominant.diagram))
             target = sp.dominant.fingerprint
             geometry["crossings_simplified"] = sp.dominant.diagram.number_of_crossings()
             if closure == "stochastic":
@@ -294,6 +323,9 @@ def _identify_prepared(x: np.ndarray, kept: np.ndarray, n_input: int, chain_id: 
             result.notes.append("no knotted core: the knot type is undetermined")
         elif _is_trivial(target):
             result.notes.append("no knotted core: the chain is unknotted")
+        elif target.jones is None:
+            result.notes.append("no knotted core searched: the Jones polynomial of the chain "
+                                "was not computed, and the search compares whole fingerprints")
         else:
             from .localisation import knotted_core
 
@@ -317,7 +349,9 @@ def _chain_where(source: str, frame: int | None, chain_id: str) -> str:
 
 def _identify_chain(chain: Chain, source: str, frame: int | None, closure: str,
                     n_closures: int, seed: int, localise: bool, table, box=None,
-                    gaps: list | None = None) -> CurveResult:
+                    gaps: list | None = None, budget=None) -> CurveResult:
+    from ..budget import TooComplex, item_budget
+
     label = _chain_where(source, frame, chain.id)
     if box is not None:  # wrapped into a periodic box: unwrap first (knotsift.curves.periodic)
         from .periodic import unwrap_chain
@@ -328,17 +362,26 @@ def _identify_chain(chain: Chain, source: str, frame: int | None, closure: str,
         from .gaps import weigh_gaps
 
         result = _identify_chain(chain, source, frame, closure, n_closures, seed, localise,
-                                 table)
+                                 table, budget=budget)
         weigh_gaps(result, chain, gaps, lambda piece: _identify_piece(
             piece, source, frame, closure, n_closures, seed, table))
         return result
     where = ", ".join(p for p in (source, f"frame {frame}" if frame is not None else "") if p)
-    prep = prepare_chains([chain], where=where)
-    x = prep.chains[0].coords
-    near = check_no_contact([(x, chain.closed)], [chain.id], prep.kept, where=where)
-    result = _identify_prepared(x, prep.kept[0], len(chain.coords), chain.id, chain.closed,
-                                closure, n_closures, seed, localise, table, label, where,
-                                list(prep.warnings) + near)
+    with item_budget(budget):  # one chain is one item: its wall time starts here
+        prep = prepare_chains([chain], where=where)
+        x = prep.chains[0].coords
+        near = check_no_contact([(x, chain.closed)], [chain.id], prep.kept, where=where)
+        try:
+            result = _identify_prepared(x, prep.kept[0], len(chain.coords), chain.id,
+                                        chain.closed, closure, n_closures, seed, localise,
+                                        table, label, where, list(prep.warnings) + near)
+        except TooComplex as exc:  # past the deadline outside identify_diagram (closures)
+            result = CurveResult(status="too complex", error=exc.message, source=label,
+                                 notation=CURVE_NOTATION, chain=chain.id, closed=chain.closed,
+                                 beads=len(chain.coords),
+                                 closure=None if chain.closed else closure,
+                                 warnings=list(prep.warnings) + near, primality="unknown")
+            result.notes.append(f"{exc.message}; no invariant of the chain was kept")
     result.frame = frame
     return result
 
@@ -353,7 +396,7 @@ def _identify_piece(piece: Chain, source: str, frame: int | None, closure: str,
 
 def identify_curve(coords, closed: bool = True, closure: str = "stochastic",
                    n_closures: int = DEFAULT_CLOSURES, seed: int = 0, localise: bool = False,
-                   table=None, source: str = "", box=None) -> CurveResult:
+                   table=None, source: str = "", box=None, budget=None) -> CurveResult:
     """Identify the knot formed by one chain of 3D coordinates.
 
     Parameters
@@ -376,6 +419,9 @@ def identify_curve(coords, closed: bool = True, closure: str = "stochastic",
         Default: the shipped table.
     source : str
         A label for reports.
+    budget : knotsift.budget.Budget, optional
+        Cost limits of this chain (Jones estimate, wall time); default the
+        enclosing :func:`knotsift.budget.item_budget` or the defaults.
     box : sequence of 3 or 6 numbers, optional
         A periodic box the chain is wrapped into (default: a Frame's own
         box); the chain is unwrapped first (see knotsift.curves.periodic).
@@ -383,6 +429,7 @@ def identify_curve(coords, closed: bool = True, closure: str = "stochastic",
     Returns
     -------
     CurveResult
+        Status ``too complex`` when the chain's wall time ran out.
 
     Raises
     ------
@@ -426,7 +473,7 @@ def identify_curve(coords, closed: bool = True, closure: str = "stochastic",
     else:
         chain = as_chain(coords, closed)
     return _identify_chain(chain, source, frame_index, closure, n_closures, seed, localise,
-                           table, box=box)
+                           table, box=box, budget=budget)
 
 
 def _linking(frame: Frame, rings: list[Chain], seed: int, table=None
@@ -463,7 +510,7 @@ def _linking(frame: Frame, rings: list[Chain], seed: int, table=None
 
 def identify_frame(frame: Frame, closure: str = "stochastic",
                    n_closures: int = DEFAULT_CLOSURES, seed: int = 0, localise: bool = False,
-                   table=None, linking: bool = True) -> FrameResult:
+                   table=None, linking: bool = True, budget=None) -> FrameResult:
     """Identify every chain of a frame and the linking numbers of its rings.
 
     Each chain is checked and identified on its own (another chain does not
@@ -479,6 +526,8 @@ def identify_frame(frame: Frame, closure: str = "stochastic",
         As for :func:`identify_curve`.
     linking : bool
         Compute the linking numbers of pairs of rings.
+    budget : knotsift.budget.Budget, optional
+        Cost limits of each chain (see :func:`identify_curve`).
 
     Returns
     -------
@@ -494,7 +543,7 @@ def identify_frame(frame: Frame, closure: str = "stochastic",
         try:
             r = _identify_chain(chain, frame.source, frame.index, closure, n_closures, seed,
                                 localise, table, box=getattr(frame, "box", None),
-                                gaps=getattr(frame, "gaps", {}).get(chain.id))
+                                gaps=getattr(frame, "gaps", {}).get(chain.id), budget=budget)
             good.append(chain)
         except CurveError as exc:
             r = CurveResult(status="error", error=str(exc),

@@ -10,7 +10,7 @@ from ..laurent import Laurent
 from ..partition import Partition
 from .elimination import kronecker_polynomial_determinant, linear_polynomial_determinant
 
-__all__ = ["alexander_matrix", "alexander_polynomial"]
+__all__ = ["alexander_matrix", "alexander_polynomial", "normalise_alexander"]
 
 # Up to this many crossings the minor is expanded by one FLINT integer
 # determinant (Kronecker substitution); above it, by elimination modulo primes
@@ -279,3 +279,14 @@ def alexander_polynomial(diagram: Diagram, method: str | None = None) -> Laurent
     if method is None:
         method = "kronecker" if n <= SMALL_DIAGRAM else "modular"
     return _conway_normalised(_minor_determinant(rows, n, method))
+
+
+def normalise_alexander(p: Laurent) -> Laurent:
+    """Shift and sign a polynomial to the symmetric form with Delta(1) = +1 when possible."""
+    if p.is_zero():
+        return p
+    lo, hi = p.min_exponent, p.max_exponent
+    centred = p.shift(-(lo + hi) / 2)
+    if sum(c for _, c in centred.terms()) < 0:
+        centred = -centred
+    return centred

@@ -25,6 +25,7 @@ from heapq import heappop, heappush
 from operator import itemgetter
 from typing import Sequence
 
+from ..budget import bracket_progress, packed_state_bytes
 from ..diagram import Diagram
 from ..errors import InvariantError
 from ..laurent import Laurent
@@ -121,11 +122,11 @@ def contraction_order(diagram: Diagram, tries: int = 40, seed: int = 0) -> list[
     return best[1]
 
 
-def contraction_width(diagram: Diagram, order: Sequence[int] | None = None) -> int:
-    """Largest number of open edges along the contraction order."""
-    order = contraction_order(diagram) if order is None else order
+def boundary_widths(diagram: Diagram, order: Sequence[int]) -> list[int]:
+    """The number of open edges after each crossing of ``order`` is added."""
     seen: set[int] = set()
-    width = widest = 0
+    width = 0
+    out = []
     for i in order:
         x = diagram.crossings[i]
         for e in set(x):
@@ -136,8 +137,14 @@ def contraction_width(diagram: Diagram, order: Sequence[int] | None = None) -> i
             else:
                 seen.add(e)
                 width += 1
-        widest = max(widest, width)
-    return widest
+        out.append(width)
+    return out
+
+
+def contraction_width(diagram: Diagram, order: Sequence[int] | None = None) -> int:
+    """Largest number of open edges along the contraction order."""
+    order = contraction_order(diagram) if order is None else order
+    return max(boundary_widths(diagram, order), default=0)
 
 
 def _decode(value: int, bits: int) -> list[int]:
@@ -324,6 +331,7 @@ def kauffman_bracket(diagram: Diagram, order: Sequence[int] | None = None) -> La
     offset = n + 2
     one = 1 << (bits * offset)
 
+    state_bytes = packed_state_bytes(n)
     # A state is the matching of the open boundary made by the processed part,
     # as bytes: key[i] is the position paired with position i.
     bnd: list[int] = []
@@ -366,6 +374,7 @@ def kauffman_bracket(diagram: Diagram, order: Sequence[int] | None = None) -> La
         bnd = bnd2
         if not states:
             return Laurent.constant(0)
+        bracket_progress(len(states), state_bytes)  # stops past the memory or time budget
     value = states.get(b"", 0)
     digits = _decode(value, bits)
     coeffs = {2 * (k - offset) - n: c for k, c in enumerate(digits) if c}

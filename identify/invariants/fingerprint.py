@@ -39,7 +39,9 @@ class Fingerprint:
     Attributes
     ----------
     components : int
-    jones : Laurent
+    jones : Laurent or None
+        None when the Jones polynomial was not computed (skipped for cost,
+        see :mod:`knotsift.budget`); such a fingerprint matches no table key.
     alexander : Laurent or None
         None for links (the single-variable Alexander polynomial is computed
         for knots only).
@@ -60,7 +62,7 @@ class Fingerprint:
     """
 
     components: int
-    jones: Laurent
+    jones: Laurent | None
     alexander: Laurent | None
     determinant: int
     signature: int
@@ -72,7 +74,8 @@ class Fingerprint:
         """The fingerprint of the mirror image."""
         from .perturbed_alexander import mirror_hash
 
-        return Fingerprint(self.components, self.jones.mirror(), self.alexander,
+        jones = None if self.jones is None else self.jones.mirror()
+        return Fingerprint(self.components, jones, self.alexander,
                            self.determinant, -self.signature,
                            None if self.rho_1 is None else -self.rho_1, self.homology,
                            None if self.rho_1_hash is None else mirror_hash(self.rho_1_hash))
@@ -91,7 +94,7 @@ class Fingerprint:
             hashed = rho_1_hash_of(self.rho_1, self.alexander)
         return {
             "components": str(self.components),
-            "jones": str(self.jones),
+            "jones": "" if self.jones is None else str(self.jones),
             "alexander": "" if self.alexander is None else str(self.alexander),
             "determinant": str(self.determinant),
             "signature": str(self.signature),
@@ -128,7 +131,8 @@ class Fingerprint:
         if self.rho_1 is not None and other.rho_1 is not None:
             rho = (other.alexander * other.alexander * self.rho_1
                    + self.alexander * self.alexander * other.rho_1)
-        return Fingerprint(1, self.jones * other.jones, self.alexander * other.alexander,
+        jones = None if self.jones is None or other.jones is None else self.jones * other.jones
+        return Fingerprint(1, jones, self.alexander * other.alexander,
                            self.determinant * other.determinant,
                            self.signature + other.signature, rho,
                            homology_sum(self.homology, other.homology))
