@@ -86,7 +86,7 @@ def register(sub, notation_choices) -> None:
     d.add_argument("--signs", action="store_true", help="the sign of every crossing")
     d.add_argument("--labels", action="store_true",
                    help="the PD edge labels, crossing numbers and arrows, to check a "
-                        "transcription label by label")
+                        "hand-copied code label by label")
     d.add_argument("--seed", type=int, default=0,
                    help="seed of the picture's choices and of a chain's view direction "
                         "(default 0)")
