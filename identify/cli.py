@@ -215,13 +215,21 @@ def _cmd_identify(args) -> int:
     return 0
 
 
+def _print_entry(info: dict, as_json: bool, to_text) -> None:
+    """A table entry (knot or link) as JSON or as readable text."""
+    if as_json:
+        json.dump(info, sys.stdout, indent=2)
+        print()
+    else:
+        print(to_text(info))
+
+
 def _cmd_show(args) -> int:
     from .entry import describe_entry, entry_text
+    from .limits import check_text
+    from .link_entry import describe_link, find_link, link_entry_text
     from .names import resolve_name
     from .table import open_table
-
-    from .link_entry import describe_link, find_link, link_entry_text
-    from .limits import check_text
 
     if not args.name.strip():
         print("knotsift show: give a name, e.g. 4_1 or 'figure eight'", file=sys.stderr)
@@ -230,12 +238,7 @@ def _cmd_show(args) -> int:
     table = open_table(args.table)
     link = find_link(args.name, table)
     if link is not None:
-        info = describe_link(link, table)
-        if args.json:
-            json.dump(info, sys.stdout, indent=2)
-            print()
-        else:
-            print(link_entry_text(info))
+        _print_entry(describe_link(link, table), args.json, link_entry_text)
         return 0
     if "^" in args.name:
         print(f"knotsift show: no link named {args.name!r} (the link table holds links of 2 and "
@@ -262,11 +265,7 @@ def _cmd_show(args) -> int:
     if best.guess:
         print(f"knotsift show: no table entry is named {args.name!r}; showing {info['label']} "
               f"as a guess ({best.how})", file=sys.stderr)
-    if args.json:
-        json.dump(info, sys.stdout, indent=2)
-        print()
-    else:
-        print(entry_text(info))
+    _print_entry(info, args.json, entry_text)
     return 0
 
 
