@@ -1,6 +1,10 @@
 """Local worker processes with hard per-item limits, poison-item isolation and adaptive tasks.
 
-Each worker is a child process started with the ``spawn`` method.  It
+Each worker is a child process.  On Linux it is forked from the parent after
+the parent has imported and warmed up the classification path once
+(``preload``), so a worker starts in milliseconds with every module loaded
+(and any compiled kernel already compiled); elsewhere it is started with
+``spawn`` and imports what it needs itself.  Each worker
 
 * dies with its parent: on Linux the kernel sends it SIGKILL when the parent
   ends (``PR_SET_PDEATHSIG``), and on every system a watchdog thread ends it
@@ -14,18 +18,24 @@ Each worker is a child process started with the ``spawn`` method.  It
   of the items it finished before.
 
 An item running past ``item_seconds`` (wall clock) has its worker ended.  An
-item whose worker dies or runs over is retried once, alone, in a fresh
-worker; if that fails too, it becomes an error row saying why, and the run
-goes on.  A poison item therefore never blocks a batch.
+item whose worker dies or runs over is retried once, alone, first thing in a
+fresh worker; if that fails too, it becomes an error row saying why, and the
+run goes on.  A poison item therefore never blocks a batch.
 
 Tasks are sized adaptively: the first tasks hold one item each, so every
 worker has work at once, and later tasks grow towards about
-:data:`TARGET_TASK_SECONDS` of work at the measured rate, never beyond the
-``chunk`` given by the user.
+:data:`TARGET_TASK_SECONDS` of work at the rate the workers measure, never
+beyond the ``chunk`` given by the user.  Each worker holds
+:data:`TASKS_AHEAD` tasks: it starts the next one the moment it finishes one,
+while the parent reads the input, writes rows or answers another worker, so
+the parent's own work overlaps the workers' instead of stalling them.  Tasks
+stay short so that the last one, when only one worker is still busy, is short
+too.
 """
 
 from __future__ import annotations
 
+import itertools
 import math
 import os
 import signal
@@ -36,10 +46,13 @@ from collections import deque
 from collections.abc import Callable, Iterator
 from dataclasses import dataclass, field
 
-__all__ = ["run_pool", "task_size", "TARGET_TASK_SECONDS", "set_parent_death_signal"]
+__all__ = ["run_pool", "task_size", "start_method", "TARGET_TASK_SECONDS", "TASKS_AHEAD",
+           "set_parent_death_signal"]
 
 #: Aimed duration of one task once the rate of items is known (seconds).
-TARGET_TASK_SECONDS = 2.0
+TARGET_TASK_SECONDS = 0.5
+#: Tasks held by one worker at a time: the one it runs and the next, already sent.
+TASKS_AHEAD = 2
 _PR_SET_PDEATHSIG = 1
 
 
@@ -104,6 +117,7 @@ def _worker_main(conn, parent: int, limits_env: str, memory_mb: int, work) -> No
         if message is None:
             return
         task_id, items, options = message
+        began = time.perf_counter()
         for i, item in enumerate(items):
             conn.send(("start", task_id, i))
             try:
@@ -114,7 +128,15 @@ def _worker_main(conn, parent: int, limits_env: str, memory_mb: int, work) -> No
                 conn.send(("memory", task_id, i))
                 continue
             conn.send(("rows", task_id, i, rows))
-        conn.send(("done", task_id))
+        conn.send(("done", task_id, time.perf_counter() - began))
+
+
+def start_method() -> str:
+    """``fork`` on Linux (workers inherit the warmed-up parent), ``spawn`` elsewhere.
+
+    Forking is not safe on macOS (system libraries) and missing on Windows.
+    """
+    return "fork" if sys.platform.startswith("linux") else "spawn"
 
 
 def task_size(rate: float | None, workers: int, chunk: int) -> int:
@@ -131,7 +153,7 @@ def task_size(rate: float | None, workers: int, chunk: int) -> int:
     Examples
     --------
     >>> task_size(None, 2, 200), task_size(10.0, 2, 200), task_size(1000.0, 2, 200)
-    (1, 20, 200)
+    (1, 5, 200)
     """
     if not rate or rate <= 0:
         return 1
@@ -164,14 +186,20 @@ class _Task:
 class _Worker:
     process: object
     conn: object
-    task: _Task | None = None
-    busy_since: float = 0.0
+    tasks: deque = field(default_factory=deque)   # sent, in the order the worker runs them
+
+    @property
+    def task(self) -> _Task | None:
+        """The task the worker is running (or will run next)."""
+        return self.tasks[0] if self.tasks else None
 
 
 def run_pool(items: Iterator, options, work: Callable, write: Callable[[list], None],
              fail_rows: Callable[[object, str], list], workers: int, chunk: int,
              item_seconds: float, memory_mb: int, flush_seconds: float = 2.0,
-             stop: Callable[[], bool] | None = None) -> None:
+             stop: Callable[[], bool] | None = None,
+             preload: Callable[[object], None] | None = None,
+             method: str | None = None) -> None:
     """Classify ``items`` on ``workers`` local processes; write rows as they are ready.
 
     Parameters
@@ -197,6 +225,12 @@ def run_pool(items: Iterator, options, work: Callable, write: Callable[[list], N
         Rows are written at least this often (and whenever ``chunk`` are waiting).
     stop : callable, optional
         Polled between events; when it returns True the pool stops.
+    preload : callable, optional
+        ``preload(first_item)``, run once in this process before the workers
+        are forked, to import and warm up what ``work`` needs (its errors are
+        ignored: the workers then do it themselves).  Not run with ``spawn``.
+    method : str, optional
+        ``fork`` or ``spawn`` (default: :func:`start_method`).
 
     Notes
     -----
@@ -209,7 +243,8 @@ def run_pool(items: Iterator, options, work: Callable, write: Callable[[list], N
     from ..errors import KnotsiftError
     from ..limits import ENV_VAR
 
-    ctx = multiprocessing.get_context("spawn")
+    method = method or start_method()
+    ctx = multiprocessing.get_context(method)
     limits_env = os.environ.get(ENV_VAR, "")
     parent = os.getpid()
     pool: list[_Worker] = []
@@ -221,11 +256,17 @@ def run_pool(items: Iterator, options, work: Callable, write: Callable[[list], N
     waiting = [0]              # rows in buffer
     last_flush = time.monotonic()
     done_items = 0
-    busy_seconds = 0.0
+    busy_seconds = 0.0         # the workers' own time on finished tasks
     deaths = [0]   # worker deaths with no item started: a broken start, not a poison item
 
     def start_worker() -> _Worker:
         mine, theirs = ctx.Pipe()
+        if method == "fork":   # buffered output must not be written again by the child
+            for stream in (sys.stdout, sys.stderr):
+                try:
+                    stream.flush()
+                except (AttributeError, OSError, ValueError):
+                    pass
         p = ctx.Process(target=_worker_main, args=(theirs, parent, limits_env, memory_mb, work),
                         daemon=True)
         p.start()
@@ -249,7 +290,7 @@ def run_pool(items: Iterator, options, work: Callable, write: Callable[[list], N
         waiting[0] += len(rows)
 
     def next_task() -> _Task | None:
-        nonlocal exhausted, next_id
+        nonlocal exhausted
         if retry:
             return retry.popleft()
         if exhausted:
@@ -267,15 +308,22 @@ def run_pool(items: Iterator, options, work: Callable, write: Callable[[list], N
         return _Task(0, block)
 
     def give(w: _Worker) -> None:
+        """Fill the worker up to TASKS_AHEAD tasks (a retried item runs alone)."""
         nonlocal next_id
-        task = next_task()
-        if task is None:
-            return
-        next_id += 1
-        task.id = next_id
-        w.task, w.busy_since = task, time.monotonic()
-        task.current, task.started = None, time.monotonic()
-        w.conn.send((task.id, task.items, options))
+        while len(w.tasks) < TASKS_AHEAD:
+            if retry and retry[0].attempt >= 2 and w.tasks:
+                return   # a suspect item is retried first thing in a fresh worker
+            task = next_task()
+            if task is None:
+                return
+            next_id += 1
+            task.id = next_id
+            task.current, task.started = None, time.monotonic()
+            w.tasks.append(task)
+            try:
+                w.conn.send((task.id, task.items, options))
+            except OSError:   # the worker just ended: its sentinel reports it, its tasks
+                return        # (this one included) are given to another worker then
 
     def end(w: _Worker) -> None:
         try:
@@ -287,11 +335,13 @@ def run_pool(items: Iterator, options, work: Callable, write: Callable[[list], N
 
     def lost(w: _Worker, reason: str) -> None:
         """The worker died or was ended: keep finished items, retry or give up the current."""
-        task = w.task
+        tasks = list(w.tasks)
+        w.tasks.clear()
         end(w)
         pool.remove(w)
-        if task is None:
+        if not tasks:
             return
+        task, queued = tasks[0], tasks[1:]
         kept = [task.rows[i] for i in sorted(task.rows)]
         for rows in kept:
             keep(rows)
@@ -314,9 +364,51 @@ def run_pool(items: Iterator, options, work: Callable, write: Callable[[list], N
         if rest:
             retry.append(_Task(0, rest, attempt=task.attempt if len(rest) == 1 and
                                suspect is None else 1))
+        for t in queued:   # sent but never started: they go to another worker as they were
+            retry.append(_Task(0, t.items, attempt=t.attempt))
         flush()
 
+    def handle(w: _Worker, msg: tuple, now: float) -> bool:
+        """One message of a worker; True when one of its tasks ended (room for the next)."""
+        nonlocal done_items, busy_seconds
+        task = next((t for t in w.tasks if t.id == msg[1]), None)
+        if task is None:
+            return False
+        if msg[0] == "start":
+            task.current, task.started = msg[2], now
+        elif msg[0] == "rows":
+            task.rows[msg[2]] = msg[3]
+            task.current = None
+        elif msg[0] == "memory":
+            item = task.items[msg[2]]
+            task.rows[msg[2]] = fail_rows(
+                item, f"out of memory: the item needs more than the limit "
+                      f"worker_memory_mb = {memory_mb}")
+            task.current = None
+        elif msg[0] == "done":
+            for i in sorted(task.rows):
+                keep(task.rows[i])
+            done_items += len(task.items)
+            busy_seconds += msg[2]
+            w.tasks.remove(task)
+            return True
+        return False
+
+    def replace(w: _Worker, reason: str) -> None:
+        lost(w, reason)
+        pool.append(start_worker())
+        give(pool[-1])
+
     try:
+        first = next(source, None)
+        if first is None:
+            return
+        source = itertools.chain((first,), source)
+        if preload is not None and method == "fork":
+            try:
+                preload(first)
+            except Exception:  # noqa: BLE001 - only a warm-up: each worker does it again
+                pass
         for _ in range(workers):
             pool.append(start_worker())
         for w in pool:
@@ -324,13 +416,13 @@ def run_pool(items: Iterator, options, work: Callable, write: Callable[[list], N
         while True:
             if stop is not None and stop():
                 break
-            active = [w for w in pool if w.task is not None]
+            active = [w for w in pool if w.tasks]
             if not active and exhausted and not retry:
                 break
             if not active:
                 for w in pool:
                     give(w)
-                if not any(w.task for w in pool):
+                if not any(w.tasks for w in pool):
                     if exhausted and not retry:
                         break
                     continue
@@ -345,46 +437,26 @@ def run_pool(items: Iterator, options, work: Callable, write: Callable[[list], N
                 if w not in pool:
                     continue
                 if obj is w.process.sentinel and not w.conn.poll():
-                    lost(w, _death(w))
-                    pool.append(start_worker())
-                    give(pool[-1])
+                    replace(w, _death(w))
                     continue
-                try:
-                    msg = w.conn.recv()
-                except (EOFError, OSError):
-                    lost(w, _death(w))
-                    pool.append(start_worker())
-                    give(pool[-1])
-                    continue
-                task = w.task
-                if task is None or msg[1] != task.id:
-                    continue
-                if msg[0] == "start":
-                    task.current, task.started = msg[2], now
-                elif msg[0] == "rows":
-                    task.rows[msg[2]] = msg[3]
-                    task.current = None
-                elif msg[0] == "memory":
-                    item = task.items[msg[2]]
-                    task.rows[msg[2]] = fail_rows(
-                        item, f"out of memory: the item needs more than the limit "
-                              f"worker_memory_mb = {memory_mb}")
-                    task.current = None
-                elif msg[0] == "done":
-                    for i in sorted(task.rows):
-                        keep(task.rows[i])
-                    done_items += len(task.items)
-                    busy_seconds += now - w.busy_since
-                    w.task = None
-                    give(w)
+                while w in pool and w.conn.poll():   # every message waiting, in order
+                    try:
+                        msg = w.conn.recv()
+                    except (EOFError, OSError):
+                        replace(w, _death(w))
+                        break
+                    if handle(w, msg, now):
+                        give(w)
             for w in list(pool):
                 task = w.task
                 if task is not None and task.current is not None and \
                         now - task.started > item_seconds:
-                    lost(w, f"the item ran past the hard limit item_seconds = "
-                            f"{item_seconds:g} s and its worker was ended")
-                    pool.append(start_worker())
-                    give(pool[-1])
+                    replace(w, f"the item ran past the hard limit item_seconds = "
+                               f"{item_seconds:g} s and its worker was ended")
+            if not exhausted or retry:
+                for w in pool:   # a worker left short (a retry ran alone) is filled again
+                    if len(w.tasks) < TASKS_AHEAD:
+                        give(w)
             flush()
         flush(force=True)
     except BaseException:

@@ -13,7 +13,8 @@ import time
 import pytest
 
 from knotsift.bulk.sources import Item
-from knotsift.bulk.workers import run_pool, set_parent_death_signal, task_size
+from knotsift.bulk.workers import (TARGET_TASK_SECONDS, run_pool, set_parent_death_signal,
+                                   task_size)
 
 from . import poison
 
@@ -67,10 +68,11 @@ def test_run_pool_writes_whole_items_within_chunk():
 
 def test_task_size_starts_at_one_and_grows_to_the_chunk():
     """The first task of each worker holds one item (every worker busy at once); later tasks
-    aim at about two seconds of work and never pass the chunk."""
+    aim at about TARGET_TASK_SECONDS of work and never pass the chunk."""
+    assert TARGET_TASK_SECONDS == 0.5
     assert task_size(None, 2, 200) == 1
     assert task_size(0.5, 2, 200) == 1
-    assert task_size(30.0, 2, 200) == 60
+    assert task_size(30.0, 2, 200) == 15
     assert task_size(1e6, 2, 200) == 200
 
 
