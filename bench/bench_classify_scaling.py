@@ -138,16 +138,45 @@ def run_classify(xyz: Path, out: Path, workers: int, old: str | None = None,
     cmd = [sys.executable, "-c", _PROBE, "classify", str(xyz), "--out", str(out),
            "--workers", str(workers), "--quiet", "--json"]
     start = time.perf_counter()
-    proc = subprocess.run(cmd, env=env, capture_output=True, text=True, check=False)
+    proc = subprocess.Popen(cmd, env=env, stdout=subprocess.PIPE, stderr=subprocess.PIPE,
+                            text=True)
+    sched: dict[int, tuple] = {}
+    while proc.poll() is None:
+        _sample(proc.pid, sched)
+        time.sleep(0.05)
+    stdout, stderr = proc.communicate()
     wall = time.perf_counter() - start
-    lines = proc.stdout.strip().splitlines()
+    lines = stdout.strip().splitlines()
     if proc.returncode or not lines:
-        raise RuntimeError(f"classify failed ({proc.returncode}): {proc.stderr[-2000:]}")
+        raise RuntimeError(f"classify failed ({proc.returncode}): {stderr[-2000:]}")
     probe = json.loads(lines[-1])
     report = json.loads("\n".join(lines[:-1]))
+    kids = [v for k, v in sched.items() if k != proc.pid]
     return {"wall": wall, "frames": report["written"], "failed": report["failed"],
             "counts": report["counts"], "parent_cpu": probe["parent_cpu"],
-            "children_cpu": probe["children_cpu"]}
+            "children_cpu": probe["children_cpu"],
+            "workers_idle": sum(max(0.0, (last - first) - run - queued)
+                                for first, last, run, queued in kids),
+            "workers_queued": sum(v[3] for v in kids)}
+
+
+def _sample(pid: int, sched: dict) -> None:
+    """Note (first seen, last seen, seconds on a CPU, seconds waiting for one) of ``pid`` and
+    its children, from /proc/PID/schedstat (Linux); a worker's remaining time is idle."""
+    try:
+        with open(f"/proc/{pid}/task/{pid}/children") as fh:
+            pids = [pid] + [int(k) for k in fh.read().split()]
+    except OSError:
+        return
+    now = time.monotonic()
+    for k in pids:
+        try:
+            with open(f"/proc/{k}/schedstat") as fh:
+                run, queued = (int(v) / 1e9 for v in fh.read().split()[:2])
+        except (OSError, ValueError):
+            continue
+        first = sched.get(k, (now,))[0]
+        sched[k] = (first, now, run, queued)
 
 
 def _line(label: str, runs: list[dict]) -> dict:
@@ -155,11 +184,16 @@ def _line(label: str, runs: list[dict]) -> dict:
     parent = statistics.median(r["parent_cpu"] for r in runs)
     kids = statistics.median(r["children_cpu"] for r in runs)
     wall = statistics.median(r["wall"] for r in runs)
+    cores = statistics.median((r["parent_cpu"] + r["children_cpu"]) / r["wall"] for r in runs)
     each = ", ".join(f"{r['frames'] / r['wall']:.1f}" for r in runs)
-    print(f"  {label:<28} {rate:7.1f} frames/s  wall {wall:6.1f}s  parent CPU {parent:6.1f}s "
-          f"({parent / wall:4.0%} of a core)  workers CPU {kids:6.1f}s  "
-          f"[{each}]", flush=True)
-    return {"rate": rate, "parent": parent, "children": kids, "wall": wall}
+    idle = statistics.median(r["workers_idle"] for r in runs)
+    queued = statistics.median(r["workers_queued"] for r in runs)
+    print(f"  {label:<18} {rate:7.1f} frames/s  wall {wall:6.1f}s  parent CPU {parent:6.1f}s "
+          f"({parent / wall:4.0%} of a core)  workers CPU {kids:6.1f}s  cores obtained "
+          f"{cores:.2f}  [{each}]" + (f"\n  {'':<18} workers idle {idle:5.1f}s, waiting for a "
+                                      f"CPU {queued:5.1f}s (taken by other processes)"
+                                      if idle or queued else ""), flush=True)
+    return {"rate": rate, "parent": parent, "children": kids, "wall": wall, "cores": cores}
 
 
 def main(argv=None) -> int:
@@ -210,15 +244,18 @@ def main(argv=None) -> int:
                     one = _line(f"{name}, 1 worker", runs[(name, 1)])
                     two = _line(f"{name}, 2 workers", runs[(name, 2)])
                     ratio = two["rate"] / one["rate"]
-                    print(f"  {name}: ratio 2/1 workers {ratio:.2f}x (goal >= 1.8x); parent "
-                          f"share of all CPU on 2 workers "
+                    per_cpu = (two["rate"] / two["cores"]) / (one["rate"] / one["cores"])
+                    print(f"  {name}: ratio 2/1 workers {ratio:.2f}x (goal >= 1.8x); frames per "
+                          f"CPU second on 2 workers {per_cpu:.2f} of 1 worker's (1.00: no "
+                          f"parallel overhead); parent share of all CPU on 2 workers "
                           f"{two['parent'] / (two['parent'] + two['children']):.0%}",
                           flush=True)
-                    summary.append((beads, kind, name, one["rate"], two["rate"], ratio))
-        print("\nsummary (frames/s, median of the repeats):")
-        for beads, kind, name, one, two, ratio in summary:
-            print(f"  {beads:>5} beads  {kind:<24} {name:<4} 1 worker {one:7.1f}  "
-                  f"2 workers {two:7.1f}  ratio {ratio:.2f}x")
+                    summary.append((beads, kind, name, one, two, ratio, per_cpu))
+        print("\nsummary (frames/s, median of the repeats; cores obtained in brackets):")
+        for beads, kind, name, one, two, ratio, per_cpu in summary:
+            print(f"  {beads:>5} beads  {kind:<24} {name:<4} 1 worker {one['rate']:7.1f} "
+                  f"({one['cores']:.2f})  2 workers {two['rate']:7.1f} ({two['cores']:.2f})  "
+                  f"ratio {ratio:.2f}x  per CPU second {per_cpu:.2f}")
     print(f"load average after: {', '.join(f'{x:.2f}' for x in os.getloadavg())}")
     return 0
 

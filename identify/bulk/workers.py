@@ -38,6 +38,7 @@ from __future__ import annotations
 import itertools
 import math
 import os
+import queue
 import signal
 import sys
 import threading
@@ -53,6 +54,11 @@ __all__ = ["run_pool", "task_size", "start_method", "TARGET_TASK_SECONDS", "TASK
 TARGET_TASK_SECONDS = 0.5
 #: Tasks held by one worker at a time: the one it runs and the next, already sent.
 TASKS_AHEAD = 2
+#: Longest wait for a worker to take a task sent ahead (seconds).  A worker
+#: thread always takes it at once, unless the worker is stuck in one long call
+#: that holds the interpreter; that worker is then ended and its item retried
+#: alone, so the parent never waits on it for longer.
+SEND_SECONDS = 10
 _PR_SET_PDEATHSIG = 1
 
 
@@ -78,6 +84,22 @@ def _watch_parent(parent: int) -> None:
         if os.getppid() != parent:
             os._exit(1)
         time.sleep(0.5)
+
+
+def _limit_send(conn, seconds: float) -> None:
+    """Make a send on ``conn`` (a socket) fail after ``seconds`` instead of blocking."""
+    import socket
+    import struct
+
+    try:
+        sock = socket.socket(fileno=os.dup(conn.fileno()))
+        try:
+            sock.setsockopt(socket.SOL_SOCKET, socket.SO_SNDTIMEO,
+                            struct.pack("ll", int(seconds), 0))
+        finally:
+            sock.close()   # the option stays with the socket, not with this descriptor
+    except (OSError, AttributeError, struct.error):
+        pass
 
 
 def _cap_memory(megabytes: int) -> None:
@@ -108,12 +130,22 @@ def _worker_main(conn, parent: int, limits_env: str, memory_mb: int, work) -> No
     _cap_memory(memory_mb)
     from ..table import open_table
 
-    open_table.cache_clear()
+    open_table.cache_clear()   # an SQLite connection is not carried across a fork
+    inbox: queue.SimpleQueue = queue.SimpleQueue()
+
+    def receive() -> None:   # always drained, so the parent never blocks sending a task
+        while True:
+            try:
+                message = conn.recv()
+            except (EOFError, OSError):
+                message = None
+            inbox.put(message)
+            if message is None:
+                return
+
+    threading.Thread(target=receive, daemon=True).start()
     while True:
-        try:
-            message = conn.recv()
-        except (EOFError, OSError):
-            return
+        message = inbox.get()
         if message is None:
             return
         task_id, items, options = message
@@ -187,6 +219,7 @@ class _Worker:
     process: object
     conn: object
     tasks: deque = field(default_factory=deque)   # sent, in the order the worker runs them
+    broken: str | None = None   # why it must be ended (a send that timed out)
 
     @property
     def task(self) -> _Task | None:
@@ -271,6 +304,8 @@ def run_pool(items: Iterator, options, work: Callable, write: Callable[[list], N
                         daemon=True)
         p.start()
         theirs.close()
+        if sys.platform.startswith("linux"):
+            _limit_send(mine, SEND_SECONDS)
         return _Worker(p, mine)
 
     def flush(force: bool = False) -> None:
@@ -310,9 +345,11 @@ def run_pool(items: Iterator, options, work: Callable, write: Callable[[list], N
     def give(w: _Worker) -> None:
         """Fill the worker up to TASKS_AHEAD tasks (a retried item runs alone)."""
         nonlocal next_id
-        while len(w.tasks) < TASKS_AHEAD:
+        while len(w.tasks) < TASKS_AHEAD and w.broken is None:
+            if w.tasks and w.tasks[-1].attempt >= 2:
+                return   # a suspect item is retried alone: nothing is sent behind it
             if retry and retry[0].attempt >= 2 and w.tasks:
-                return   # a suspect item is retried first thing in a fresh worker
+                return   # ... and first thing in a fresh worker
             task = next_task()
             if task is None:
                 return
@@ -322,6 +359,10 @@ def run_pool(items: Iterator, options, work: Callable, write: Callable[[list], N
             w.tasks.append(task)
             try:
                 w.conn.send((task.id, task.items, options))
+            except (BlockingIOError, TimeoutError):
+                w.broken = (f"the worker did not take its next task for {SEND_SECONDS} s "
+                            "(stuck in one long call) and was ended")
+                return
             except OSError:   # the worker just ended: its sentinel reports it, its tasks
                 return        # (this one included) are given to another worker then
 
@@ -449,7 +490,9 @@ def run_pool(items: Iterator, options, work: Callable, write: Callable[[list], N
                         give(w)
             for w in list(pool):
                 task = w.task
-                if task is not None and task.current is not None and \
+                if w.broken is not None:
+                    replace(w, w.broken)
+                elif task is not None and task.current is not None and \
                         now - task.started > item_seconds:
                     replace(w, f"the item ran past the hard limit item_seconds = "
                                f"{item_seconds:g} s and its worker was ended")
