@@ -142,3 +142,51 @@ def test_classify_killed_parent_leaves_no_worker(tmp_path, sig):
         assert '"total": 40' in again.stdout
     else:
         assert code == -signal.SIGKILL
+
+
+@pytest.mark.skipif(not sys.platform.startswith("linux"), reason="workers fork on Linux only")
+def test_run_pool_forks_workers_after_the_warm_up():
+    """On Linux the warm-up runs once, in this process, and every worker inherits it; with
+    ``spawn`` it is not run and the workers start cold."""
+    poison.WARMED["pid"] = None
+    written: list[list[dict]] = []
+    run_pool(iter(_items(12)), None, poison.reports_warm_up, written.append, poison.fail_rows,
+             workers=2, chunk=4, item_seconds=30, memory_mb=4096, preload=poison.warm)
+    rows = [r for b in written for r in b]
+    assert len(rows) == 12
+    assert {r["warmed_by"] for r in rows} == {os.getpid()}
+    assert os.getpid() not in {r["worker"] for r in rows}
+    poison.WARMED["pid"] = None
+    written.clear()
+    run_pool(iter(_items(4)), None, poison.reports_warm_up, written.append, poison.fail_rows,
+             workers=2, chunk=4, item_seconds=30, memory_mb=4096, preload=poison.warm,
+             method="spawn")
+    assert {r["warmed_by"] for b in written for r in b} == {None}
+    assert poison.WARMED["pid"] is None
+
+
+_BIG_ITEMS = """
+import sys
+sys.path.insert(0, {root!r})
+from knotsift.bulk.sources import Item
+from knotsift.bulk.workers import run_pool
+from tests.bulk import poison
+items = [Item(f"big:{{k}}:0", "big", k, 0, "code", "x" * 100_000) for k in range(200)]
+written = []
+run_pool(iter(items), None, poison.echo_size, written.append, poison.fail_rows, workers=2,
+         chunk=40, item_seconds=60, memory_mb=4096)
+rows = [r for b in written for r in b]
+assert sorted(r["key"] for r in rows) == sorted(i.key for i in items), len(rows)
+assert {{r["size"] for r in rows}} == {{100_000}}
+print("ok")
+"""
+
+
+def test_run_pool_tasks_sent_ahead_never_block_on_big_items():
+    """Tasks of big items (100 kB each, tasks of megabytes, far above a socket's buffer) are
+    sent ahead to workers that are busy sending big rows back: the run ends, with every item
+    once (without the worker's receiving thread both sides would block on a full buffer)."""
+    root = os.path.dirname(os.path.dirname(os.path.dirname(os.path.abspath(__file__))))
+    done = subprocess.run([sys.executable, "-c", _BIG_ITEMS.format(root=root)],
+                          capture_output=True, text=True, timeout=120)
+    assert done.returncode == 0 and done.stdout.strip() == "ok", done.stderr[-2000:]
