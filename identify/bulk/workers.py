@@ -127,7 +127,6 @@ def _worker_main(conn, parent: int, limits_env: str, memory_mb: int, work) -> No
 
     if limits_env:
         os.environ[ENV_VAR] = limits_env
-    _cap_memory(memory_mb)
     from ..table import open_table
 
     open_table.cache_clear()   # an SQLite connection is not carried across a fork
@@ -144,6 +143,7 @@ def _worker_main(conn, parent: int, limits_env: str, memory_mb: int, work) -> No
                 return
 
     threading.Thread(target=receive, daemon=True).start()
+    _cap_memory(memory_mb)   # after the threads' stacks are mapped
     while True:
         message = inbox.get()
         if message is None:
@@ -163,12 +163,33 @@ def _worker_main(conn, parent: int, limits_env: str, memory_mb: int, work) -> No
         conn.send(("done", task_id, time.perf_counter() - began))
 
 
-def start_method() -> str:
-    """``fork`` on Linux (workers inherit the warmed-up parent), ``spawn`` elsewhere.
+def start_method(memory_mb: int | None = None) -> str:
+    """``fork`` where it is safe (workers inherit the warmed-up parent), else ``spawn``.
 
-    Forking is not safe on macOS (system libraries) and missing on Windows.
+    Forking needs Linux (it is unsafe on macOS and missing on Windows), a
+    parent with a single thread (a lock held by another thread at the fork
+    would stay locked in the child for ever), and a parent whose address space
+    is under half of ``memory_mb``, since a forked worker starts with the
+    parent's and its cap counts it.
+
+    Examples
+    --------
+    >>> start_method() in ("fork", "spawn")
+    True
     """
-    return "fork" if sys.platform.startswith("linux") else "spawn"
+    if not sys.platform.startswith("linux"):
+        return "spawn"
+    try:
+        if len(os.listdir("/proc/self/task")) != 1:
+            return "spawn"
+        if memory_mb is not None:
+            with open("/proc/self/statm") as fh:
+                size = int(fh.read().split()[0]) * os.sysconf("SC_PAGE_SIZE")
+            if size > (int(memory_mb) << 20) // 2:
+                return "spawn"
+    except (OSError, ValueError):
+        return "spawn"
+    return "fork"
 
 
 def task_size(rate: float | None, workers: int, chunk: int) -> int:
@@ -276,8 +297,7 @@ def run_pool(items: Iterator, options, work: Callable, write: Callable[[list], N
     from ..errors import KnotsiftError
     from ..limits import ENV_VAR
 
-    method = method or start_method()
-    ctx = multiprocessing.get_context(method)
+    ctx = None
     limits_env = os.environ.get(ENV_VAR, "")
     parent = os.getpid()
     pool: list[_Worker] = []
@@ -445,11 +465,13 @@ def run_pool(items: Iterator, options, work: Callable, write: Callable[[list], N
         if first is None:
             return
         source = itertools.chain((first,), source)
-        if preload is not None and method == "fork":
+        if preload is not None and (method or start_method(memory_mb)) == "fork":
             try:
                 preload(first)
             except Exception:  # noqa: BLE001 - only a warm-up: each worker does it again
                 pass
+        method = method or start_method(memory_mb)   # again: the warm-up may start threads
+        ctx = multiprocessing.get_context(method)
         for _ in range(workers):
             pool.append(start_worker())
         for w in pool:
