@@ -7,7 +7,8 @@ table lookup -> :class:`~knotsift.result.IdentifyResult`.
 
 from __future__ import annotations
 
-from collections import Counter
+import weakref
+from collections import Counter, OrderedDict
 
 from .diagram import Diagram
 from .errors import DiagramError, KnotsiftError
@@ -312,6 +313,62 @@ def connected_sum_parts(simple: Diagram) -> list[Diagram]:
     return parts if len(parts) >= 2 else []
 
 
+#: Parts of split diagrams remembered per table (most-recent first out past this many).
+PART_MEMO_SIZE = 4096
+
+_part_memo: "weakref.WeakKeyDictionary[ReferenceTable, OrderedDict]" = weakref.WeakKeyDictionary()
+
+
+def _part_factors(part: Diagram, table: ReferenceTable) -> list[dict] | None:
+    """The table factors of one part of a split diagram ([] for the unknot), or None.
+
+    None when the part is not identified, or is a composite named by the table
+    itself (left to the invariants).  Exactly what :func:`identify_diagram`
+    says of the part, reached by the shortest path: when the part's whole
+    fingerprint is in the table the rest of the result (separation, notes,
+    bounds) is not built.  Answers are remembered per table (a bounded memo
+    keyed by the PD code and the budget's Jones settings; parts recur across
+    the frames of a run), except those cut short by the wall-time budget.
+    """
+    from .budget import Staged, TooComplex, current_budget, item_budget, staged_invariants
+    from .simplify import simplify
+
+    b = current_budget()
+    key = (part.crossings, part.free_loops, b.jones, b.jones_memory, b.jones_seconds,
+           b.jones_always)
+    memo = _part_memo.setdefault(table, OrderedDict())
+    if key in memo:
+        memo.move_to_end(key)
+        found = memo[key]
+        return None if found is None else [dict(f) for f in found]
+    with item_budget():
+        try:
+            simple = simplify(part)
+            status, candidates = "", []
+            if simple.number_of_components() == 1:
+                staged = staged_invariants(simple, table, staged=Staged())
+                status, candidates = match_fingerprint(staged.fingerprint(), table)
+            if not candidates:  # the long way: connected sums, links
+                r = identify_diagram(part, table, simplified=simple,
+                                     staged=staged if status else None)
+                status, candidates = r.status, r.candidates
+        except TooComplex:
+            return None
+    found = None
+    if status == "identified":
+        c = candidates[0]
+        if c.factors:
+            found = [dict(f) for f in c.factors]
+        elif c.kind == "prime":
+            found = [{"name": c.name, "label": c.label, "chirality": c.chirality}]
+        elif c.kind == "unknot":
+            found = []
+    memo[key] = found
+    if len(memo) > PART_MEMO_SIZE:
+        memo.popitem(last=False)
+    return None if found is None else [dict(f) for f in found]
+
+
 def _split_parts(simple: Diagram, table: ReferenceTable):
     """(candidate, note) when the diagram splits and every part is identified, else None."""
     parts = connected_sum_parts(simple)
@@ -319,16 +376,10 @@ def _split_parts(simple: Diagram, table: ReferenceTable):
         return None
     factors = []
     for part in parts:
-        r = identify_diagram(part, table)
-        if r.status != "identified":
+        found = _part_factors(part, table)
+        if found is None:
             return None
-        c = r.candidates[0]
-        if c.factors:
-            factors.extend(c.factors)
-        elif c.kind == "prime":
-            factors.append({"name": c.name, "label": c.label, "chirality": c.chirality})
-        elif c.kind != "unknot":
-            return None  # a table composite part: leave it to the invariants
+        factors.extend(found)
     if len(factors) < 2:
         return None
     from .factorisation import Factor, Factorisation

@@ -306,6 +306,10 @@ class _Plan:
         self.spread = max(-self.low, self.high, max((abs(d) for d in self.dexp), default=0))
         self.shift = sum(lk.rotation) + sum(signs)
         self._base: dict[int, tuple] = {}
+        # what :meth:`evaluate` walks through: per crossing, and the cells of g in order
+        self._per_crossing = list(zip(signs, self.dexp, self.diagonal, strict=True))
+        self._needed = [cell for term in self.terms for cell in term[1:]] + [
+            cell for _, cell in self.edges]
 
     def evaluate(self, x: int, p: int) -> tuple[int, int] | None:
         """``(det A(x), rho_1(x))`` modulo ``p``, or None where ``A(x)`` is singular."""
@@ -326,16 +330,21 @@ class _Plan:
                 flat[index] = c % p
             cached = self._base[p] = (nmod_mat(n, n, flat, p), flat)
         m, flat = cached
+        # 1 - x^s takes two values only (s = +-1): two inverses per point, not n
+        om_pos, om_neg = (1 - x) % p, (1 - xinv) % p
+        if om_pos == 0 or om_neg == 0:
+            return None
+        inv_pos, inv_neg = pow(om_pos, -1, p), pow(om_neg, -1, p)
         cells: dict[int, int] = {}
         scale = 1
-        for c in range(n):
-            xs = x if self.signs[c] > 0 else xinv
-            one_minus = (1 - xs) % p
-            if one_minus == 0:
-                return None
-            delta = powers[self.dexp[c]] * pow(one_minus, -1, p) % p
-            scale = scale * powers[-self.dexp[c]] % p * one_minus % p
-            for index, s in self.diagonal[c]:
+        for c, (sc, dexp, diagonal) in enumerate(self._per_crossing):
+            if sc > 0:
+                one_minus, inv = om_pos, inv_pos
+            else:
+                one_minus, inv = om_neg, inv_neg
+            delta = powers[dexp] * inv % p
+            scale = scale * powers[-dexp] % p * one_minus % p
+            for index, s in diagonal:
                 cells[index] = cells.get(index, flat[index]) + s * delta
         for index, value in cells.items():
             m[index // n, index % n] = value % p
@@ -346,21 +355,20 @@ class _Plan:
         if self.sign < 0:
             det = (-det) % p
         q = m.inv()
-
-        def g(cell: tuple[int, int, int, int]) -> int:
-            t, u, below, e = cell
-            inner = below + (int(q[t - 1, u - 1]) if t and u else 0)
-            return powers[e] * inner % p
-
+        # g[a, b] = x^e (below + Minv[t - 1, u - 1]) for the cells the sum needs
+        g = [powers[e] * (below + (int(q[t - 1, u - 1]) if t and u else 0)) % p
+             for t, u, below, e in self._needed]
         half = (p + 1) // 2
         total = 0
-        for s, ji, j1j, jj1, ij, ii in self.terms:
-            gjj1 = g(jj1)
-            gii = g(ii)
-            r = g(ji) * (g(j1j) + gjj1 - g(ij)) - gii * (gjj1 - 1) - half
+        k = 0
+        for s, *_ in self.terms:
+            gji, gj1j, gjj1, gij, gii = g[k:k + 5]
+            k += 5
+            r = gji * (gj1j + gjj1 - gij) - gii * (gjj1 - 1) - half
             total += r if s > 0 else -r
-        for phik, kk in self.edges:
-            total -= phik * (g(kk) - half)
+        for phik, _ in self.edges:
+            total -= phik * (g[k] - half)
+            k += 1
         # rho_1(x) = x^(-phi - w) det^2 total
         shift = -self.shift
         factor = pow(x, shift, p) if shift >= 0 else pow(xinv, -shift, p)
