@@ -20,6 +20,7 @@ proof: a prime knot beyond the table may share all these invariants.
 
 from __future__ import annotations
 
+from collections import OrderedDict
 from dataclasses import dataclass, field
 from fractions import Fraction
 
@@ -40,6 +41,9 @@ __all__ = [
 MAX_SOLUTIONS = 200
 #: At most this many steps of the search; past them it stops and says it is incomplete.
 MAX_STEPS = 20000
+
+#: Connected-sum answers remembered per table (least recently used dropped first).
+MEMO_SIZE = 4096
 
 #: Integer points where a divisor's value must divide the remainder's (a cheap filter
 #: before exact division: P = Q R in Z[s] gives Q(k) | P(k), with s = t^(1/2)).
@@ -337,7 +341,32 @@ def factorisations(table, alexander: Laurent, determinant: int | None = None,
     >>> a = Laurent.parse("t^-1 - 1 + t")
     >>> [s.label for s in factorisations(t, a * a, 9, -4, v * v).solutions]
     ['3_1#3_1']
+
+    Notes
+    -----
+    Answers are remembered per table for the last :data:`MEMO_SIZE`
+    questions (each call gets its own copy); a search cut short by the
+    wall-time budget is not remembered.
     """
+    memo = getattr(table, "_factorisations_memo", None)
+    if memo is None:
+        memo = table._factorisations_memo = OrderedDict()
+    key = (alexander, determinant, signature, jones, limit, partial, max_steps)
+    if key in memo:
+        memo.move_to_end(key)
+    else:
+        memo[key] = _factorisations(table, alexander, determinant, signature, jones, limit,
+                                    partial, max_steps)
+        if len(memo) > MEMO_SIZE:
+            memo.popitem(last=False)
+    found = memo[key]
+    return FactorSearch(list(found.solutions), list(found.used), found.complete,
+                        [(fz, dict(rest)) for fz, rest in found.partial])
+
+
+def _factorisations(table, alexander: Laurent, determinant: int | None,
+                    signature: int | None, jones: Laurent | None, limit: int, partial: bool,
+                    max_steps: int) -> FactorSearch:
     with_jones = jones is not None
     with_sig = signature is not None
     classes = _classes(table, with_jones, with_sig)
@@ -439,7 +468,28 @@ def alexander_groupings(table, alexander: Laurent, limit: int = MAX_SOLUTIONS
         Each grouping lists its factors, fewest factors first.
     complete : bool
         False when cut at ``limit``.
+
+    Notes
+    -----
+    Answers are remembered per table for the last :data:`MEMO_SIZE`
+    polynomials asked about (the same values recur across the frames of a
+    run); a search cut short by the wall-time budget is not remembered.
     """
+    memo = getattr(table, "_groupings_memo", None)
+    if memo is None:
+        memo = table._groupings_memo = OrderedDict()
+    key = (alexander, limit)
+    if key in memo:
+        memo.move_to_end(key)
+    else:
+        memo[key] = _groupings(table, alexander, limit)
+        if len(memo) > MEMO_SIZE:
+            memo.popitem(last=False)
+    groups, complete = memo[key]
+    return [list(g) for g in groups], complete
+
+
+def _groupings(table, alexander: Laurent, limit: int) -> tuple[list[list[str]], bool]:
     classes = _classes(table, False, False)
     found: list[list[_Class]] = []
     complete = [True]
