@@ -7,8 +7,10 @@ table lookup -> :class:`~knotsift.result.IdentifyResult`.
 
 from __future__ import annotations
 
+import copy
 import weakref
 from collections import Counter, OrderedDict
+from itertools import islice
 
 from .diagram import Diagram
 from .errors import DiagramError, KnotsiftError
@@ -81,36 +83,69 @@ def match_fingerprint(fp: Fingerprint, table: ReferenceTable) -> tuple[str, list
     return _candidates_of(forms, table, computed)
 
 
+#: Separation answers remembered per table (least recently used dropped first).
+SEPARATION_MEMO_SIZE = 4096
+
+_separation_memo: "weakref.WeakKeyDictionary[ReferenceTable, OrderedDict]" = \
+    weakref.WeakKeyDictionary()
+
+
 def _separation(fp: Fingerprint, table: ReferenceTable, candidates: list[Candidate]
                 ) -> tuple[dict, list[str]]:
-    """How many table entries share each invariant with the input, and what tells them apart."""
+    """How many table entries share each invariant with the input, and what tells them apart.
+
+    A function of the invariants' texts and the candidates' names, remembered
+    per table for the last :data:`SEPARATION_MEMO_SIZE` of them (each call gets
+    its own copy).
+    """
     texts = fp.texts()
+    key = (tuple(texts.items()), tuple(c.name for c in candidates))
+    memo = _separation_memo.setdefault(table, OrderedDict())
+    found = memo.get(key)
+    if found is None:
+        found = memo[key] = _separation_of(texts, table, candidates, fp.key())
+        if len(memo) > SEPARATION_MEMO_SIZE:
+            memo.popitem(last=False)
+    else:
+        memo.move_to_end(key)
+    out, notes = found
+    return ({inv: {"value": row["value"], "count": row["count"], "labels": list(row["labels"]),
+                   "others_separated_by": {k: list(v) for k, v in
+                                           row["others_separated_by"].items()}}
+             for inv, row in out.items()}, list(notes))
+
+
+def _separation_of(texts: dict[str, str], table: ReferenceTable,
+                   candidates: list[Candidate], key: str) -> tuple[dict, list[str]]:
     out: dict[str, dict] = {}
     notes: list[str] = []
     matched_labels = set()
     for c in candidates:
         for f in table.forms_of(c.name):
-            if f.fingerprint == fp.key():
+            if f.fingerprint == key:
                 matched_labels.add(f.label)
+    matched_names = {c.name for c in candidates}
     for inv in INVARIANT_NAMES:
         value = texts[inv]
         if value == "":
             continue
         sharing = table.by_invariant(inv, value)
-        labels = [f.label for f in sharing]
-        others = [f for f in sharing if f.label not in matched_labels]
-        matched_names = {c.name for c in candidates}
-        other_knots = [f for f in others if f.name not in matched_names]
+        others = list(islice((f for f in sharing if f.label not in matched_labels), 25))
         separated_by = {}
-        for f in others[:25]:
+        for f in others:
             row = {"jones": f.jones, "alexander": f.alexander,
                    "determinant": str(f.determinant), "signature": str(f.signature),
                    "rho_1": f.rho_1, "homology": f.homology}
             separated_by[f.label] = [k for k in INVARIANT_NAMES
                                      if texts[k] != "" and row[k] != texts[k]]
-        out[inv] = {"value": value, "count": len(sharing), "labels": labels[:25],
+        out[inv] = {"value": value, "count": len(sharing),
+                    "labels": [f.label for f in sharing[:25]],
                     "others_separated_by": separated_by}
-        if candidates and other_knots and inv in ("jones", "alexander"):
+        if candidates and inv in ("jones", "alexander"):
+            other_knots = [f for f in sharing
+                           if f.label not in matched_labels and f.name not in matched_names]
+            if not other_knots:
+                continue
             shown = ", ".join(f.label for f in other_knots[:6]) + (
                 " ..." if len(other_knots) > 6 else "")
             what = sorted({k for f in other_knots[:25] for k in separated_by[f.label]})
@@ -313,8 +348,52 @@ def connected_sum_parts(simple: Diagram) -> list[Diagram]:
     return parts if len(parts) >= 2 else []
 
 
-#: Parts of split diagrams remembered per table (most-recent first out past this many).
+#: Parts of split diagrams remembered per table (least recently used dropped first).
 PART_MEMO_SIZE = 4096
+#: Staged invariants of simplified diagrams remembered per table (the same).
+STAGED_MEMO_SIZE = 4096
+
+_staged_memo: "weakref.WeakKeyDictionary[ReferenceTable, OrderedDict]" = \
+    weakref.WeakKeyDictionary()
+
+
+def _budget_key() -> tuple:
+    """The settings of the current budget that decide which invariants are computed."""
+    from .budget import current_budget
+
+    b = current_budget()
+    return (b.jones, b.jones_memory, b.jones_seconds, b.jones_always)
+
+
+def _copy_staged(source, target):
+    target.values = dict(source.values)
+    target.jones, target.cost, target.note, target.no_sum = \
+        source.jones, copy.copy(source.cost), source.note, source.no_sum
+    return target
+
+
+def _staged_invariants(simple: Diagram, table: ReferenceTable, staged):
+    """``staged_invariants(simple, table, staged=staged)``, remembered per table.
+
+    The invariants of a simplified diagram and what was skipped are a function
+    of its PD code, the table and the budget's Jones settings; the last
+    :data:`STAGED_MEMO_SIZE` are kept (small diagrams, trefoils above all,
+    recur across the frames of a run).  Computations cut short by the wall-time
+    budget raise and are not kept; ``staged`` then holds what was computed.
+    """
+    from .budget import Staged, staged_invariants
+
+    key = (simple.crossings, simple.free_loops) + _budget_key()
+    memo = _staged_memo.setdefault(table, OrderedDict())
+    found = memo.get(key)
+    if found is not None:
+        memo.move_to_end(key)
+        return _copy_staged(found, staged)
+    staged_invariants(simple, table, staged=staged)
+    memo[key] = _copy_staged(staged, Staged())
+    if len(memo) > STAGED_MEMO_SIZE:
+        memo.popitem(last=False)
+    return staged
 
 _part_memo: "weakref.WeakKeyDictionary[ReferenceTable, OrderedDict]" = weakref.WeakKeyDictionary()
 
@@ -330,12 +409,9 @@ def _part_factors(part: Diagram, table: ReferenceTable) -> list[dict] | None:
     keyed by the PD code and the budget's Jones settings; parts recur across
     the frames of a run), except those cut short by the wall-time budget.
     """
-    from .budget import Staged, TooComplex, current_budget, item_budget, staged_invariants
-    from .simplify import simplify
+    from .budget import Staged, TooComplex, item_budget
 
-    b = current_budget()
-    key = (part.crossings, part.free_loops, b.jones, b.jones_memory, b.jones_seconds,
-           b.jones_always)
+    key = (part.crossings, part.free_loops) + _budget_key()
     memo = _part_memo.setdefault(table, OrderedDict())
     if key in memo:
         memo.move_to_end(key)
@@ -343,10 +419,12 @@ def _part_factors(part: Diagram, table: ReferenceTable) -> list[dict] | None:
         return None if found is None else [dict(f) for f in found]
     with item_budget():
         try:
-            simple = simplify(part)
+            # parts come simplified (connected_sum_factors tidies each), and simplify is
+            # idempotent (tests/test_identification.py checks it), so not again here
+            simple = part
             status, candidates = "", []
             if simple.number_of_components() == 1:
-                staged = staged_invariants(simple, table, staged=Staged())
+                staged = _staged_invariants(simple, table, Staged())
                 status, candidates = match_fingerprint(staged.fingerprint(), table)
             if not candidates:  # the long way: connected sums, links
                 r = identify_diagram(part, table, simplified=simple,
@@ -539,7 +617,7 @@ def identify_diagram(diagram: Diagram, table: ReferenceTable | None = None,
         Status ``too complex`` when the wall-time budget ran out, with what
         was computed before.
     """
-    from .budget import Staged, TooComplex, item_budget, staged_invariants
+    from .budget import Staged, TooComplex, item_budget
     from .simplify import simplify
 
     table = table or open_table()
@@ -557,7 +635,7 @@ def identify_diagram(diagram: Diagram, table: ReferenceTable | None = None,
 
                 return identify_link_diagram(diagram, simple, table, source, notation)
             if not given:
-                staged_invariants(simple, table, staged=staged)
+                _staged_invariants(simple, table, staged)
             _finish_result(result, staged, simple, table)
             _unknot_basis(result)
         except TooComplex as exc:
