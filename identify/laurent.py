@@ -249,7 +249,9 @@ class Laurent:
 
     def span(self) -> Fraction:
         """Highest minus lowest exponent (0 for a monomial)."""
-        return self.max_exponent - self.min_exponent
+        if not self._coeffs:
+            raise PolynomialError("the zero polynomial has no highest exponent")
+        return Fraction(len(self._coeffs) - 1, 2)
 
     def has_integer_exponents(self) -> bool:
         return all((self._low2 + i) % 2 == 0 for i, c in enumerate(self._coeffs) if c)
