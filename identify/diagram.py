@@ -243,18 +243,22 @@ class Diagram:
             free = [d for ds in darts.values() for d in ds if d not in incoming]
             if not free:
                 break
-            d0 = min(free, key=lambda d: xs[d[0]][d[1]])
-            label = xs[d0[0]][d0[1]]
-            first, second = darts[label]
-            nxt_a = xs[first[0]][(first[1] + 2) % 4]
-            nxt_b = xs[second[0]][(second[1] + 2) % 4]
-            tail = second if nxt_a <= nxt_b else first
+            label, tail = _assumed_tail(xs, darts, free)
             incoming[tail] = False
             stack.append(tail)
             assumed.append(label)
+        self._set_analysis(darts, incoming, assumed)
+        if not planar_known and not self._is_planar():
+            self._check_planar()
+
+    def _set_analysis(self, darts: dict[int, list[Dart]], incoming: dict[Dart, bool],
+                      assumed: list[int]) -> None:
+        """Keep the darts and orientation found; derive signs and components from them."""
+        xs = self._crossings
         self._darts = darts
         self._incoming = incoming
         self._signs = tuple(1 if incoming[(i, 3)] else -1 for i in range(len(xs)))
+        # components as cyclic lists of labels in the direction of travel
         seen: set[int] = set()
         comps: list[tuple[int, ...]] = []
         for start in sorted(darts):
@@ -272,8 +276,6 @@ class Diagram:
         self._components = tuple(comps)
         self._assumed = tuple(
             k for k, comp in enumerate(comps) if any(a in comp for a in assumed))
-        if not planar_known and not self._is_planar():
-            self._check_planar()
 
     def _is_planar(self) -> bool:
         """Euler's formula (faces = crossings + 2) on every connected part of the code."""
@@ -371,39 +373,10 @@ class Diagram:
             free = [d for ds in darts.values() for d in ds if d not in incoming]
             if not free:
                 break
-            # A component that never passes under: orient it by its labels.
-            d0 = min(free, key=lambda d: xs[d[0]][d[1]])
-            label = xs[d0[0]][d0[1]]
-            first, second = darts[label]
-            # The edge runs into the dart whose continuation has the smaller
-            # label, so that consecutive labels increase along the travel.
-            nxt_a = xs[first[0]][(first[1] + 2) % 4]
-            nxt_b = xs[second[0]][(second[1] + 2) % 4]
-            tail = second if nxt_a <= nxt_b else first
-            # edge `label` leaves `tail`'s crossing: the dart at tail is outgoing
-            # and the edge then arrives at the other dart.
+            label, tail = _assumed_tail(xs, darts, free)
             stack += assign(tail, False, "assumed orientation")
             assumed.append(label)
-        self._incoming = incoming
-        self._signs = tuple(1 if incoming[(i, 3)] else -1 for i in range(len(xs)))
-        # components as cyclic lists of labels in the direction of travel
-        seen: set[int] = set()
-        comps: list[tuple[int, ...]] = []
-        for start in sorted(darts):
-            if start in seen:
-                continue
-            comp = []
-            label = start
-            while label not in seen:
-                seen.add(label)
-                comp.append(label)
-                head = next(d for d in darts[label] if incoming[d])
-                i, p = head
-                label = xs[i][(p + 2) % 4]
-            comps.append(tuple(comp))
-        self._components = tuple(comps)
-        self._assumed = tuple(
-            k for k, comp in enumerate(comps) if any(a in comp for a in assumed))
+        self._set_analysis(darts, incoming, assumed)
         self._check_planar()
 
     def _check_planar(self) -> None:
@@ -634,6 +607,21 @@ class Diagram:
     def __repr__(self) -> str:
         extra = f", free_loops={self._free_loops}" if self._free_loops else ""
         return f"Diagram({[list(x) for x in self._crossings]!r}{extra})"
+
+
+def _assumed_tail(xs, darts: dict[int, list[Dart]], free: list[Dart]) -> tuple[int, Dart]:
+    """For a component that never passes under: the edge that orients it and its outgoing dart.
+
+    The component is oriented by its labels: its smallest free label runs into
+    the dart whose continuation has the smaller label, so that consecutive
+    labels increase along the travel; the edge leaves the other dart's crossing.
+    """
+    d0 = min(free, key=lambda d: xs[d[0]][d[1]])
+    label = xs[d0[0]][d0[1]]
+    first, second = darts[label]
+    nxt_a = xs[first[0]][(first[1] + 2) % 4]
+    nxt_b = xs[second[0]][(second[1] + 2) % 4]
+    return label, (second if nxt_a <= nxt_b else first)
 
 
 def join_edges(crossings: Sequence[Sequence[int]], drop: set[int],
