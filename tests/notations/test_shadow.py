@@ -100,13 +100,13 @@ def test_table_dt_codes_match_networkx(monkeypatch):
         diagram = construct(entry)[0]
         for d in (diagram, diagram.mirror()):
             code = write_dt(d)
-            assert parse_dt(code) == _reference(monkeypatch, lambda: parse_dt(code)), entry.name
+            assert parse_dt(code) == _reference(monkeypatch, lambda c=code: parse_dt(c)), entry.name
             assert _drawn_by_rule([_walk([int(a) for a in code.split()])])
             checked += 1
         recalled = entry.dt_code
         if recalled:
-            assert _outcome(lambda: parse_dt(recalled)) == _reference(
-                monkeypatch, lambda: _outcome(lambda: parse_dt(recalled))), entry.name
+            assert _outcome(lambda c=recalled: parse_dt(c)) == _reference(
+                monkeypatch, lambda c=recalled: _outcome(lambda: parse_dt(c))), entry.name
     assert checked == 2 * 249  # the prime knots through 10 crossings (Rolfsen 1976: 249)
 
 
@@ -125,11 +125,11 @@ def test_random_dt_codes_match_networkx(monkeypatch):
             continue
         # the rule draws nothing: networkx must find no embedding either, same message
         refused += 1
-        theirs = _reference(monkeypatch, lambda: _outcome(
-            lambda: gauss._shadow_signs([walk], "DT code")))
+        theirs = _reference(monkeypatch, lambda w=walk: _outcome(
+            lambda: gauss._shadow_signs([w], "DT code")))
         assert theirs.startswith("error: DT code is not realisable"), code
         if refused <= 40:
-            assert _outcome(lambda: gauss._shadow_signs([walk], "DT code")) == theirs
+            assert _outcome(lambda w=walk: gauss._shadow_signs([w], "DT code")) == theirs
     assert realisable > 150 and refused > 150
     # the rule's choice for pieces that may turn over is networkx's nearly always
     assert same > 0.95 * realisable
