@@ -20,12 +20,13 @@ proof: a prime knot beyond the table may share all these invariants.
 
 from __future__ import annotations
 
-from collections import OrderedDict
+import weakref
 from dataclasses import dataclass, field
 from fractions import Fraction
 
 from .budget import check_deadline
 from .laurent import Laurent
+from .memo import memo_for, recall
 
 __all__ = [
     "Factor",
@@ -44,6 +45,8 @@ MAX_STEPS = 20000
 
 #: Connected-sum answers remembered per table (least recently used dropped first).
 MEMO_SIZE = 4096
+_groupings_memos: weakref.WeakKeyDictionary = weakref.WeakKeyDictionary()
+_factorisation_memos: weakref.WeakKeyDictionary = weakref.WeakKeyDictionary()
 
 #: Integer points where a divisor's value must divide the remainder's (a cheap filter
 #: before exact division: P = Q R in Z[s] gives Q(k) | P(k), with s = t^(1/2)).
@@ -348,18 +351,10 @@ def factorisations(table, alexander: Laurent, determinant: int | None = None,
     questions (each call gets its own copy); a search cut short by the
     wall-time budget is not remembered.
     """
-    memo = getattr(table, "_factorisations_memo", None)
-    if memo is None:
-        memo = table._factorisations_memo = OrderedDict()
     key = (alexander, determinant, signature, jones, limit, partial, max_steps)
-    if key in memo:
-        memo.move_to_end(key)
-    else:
-        memo[key] = _factorisations(table, alexander, determinant, signature, jones, limit,
-                                    partial, max_steps)
-        if len(memo) > MEMO_SIZE:
-            memo.popitem(last=False)
-    found = memo[key]
+    found = recall(memo_for(_factorisation_memos, table), key, MEMO_SIZE,
+                   lambda: _factorisations(table, alexander, determinant, signature, jones,
+                                           limit, partial, max_steps))
     return FactorSearch(list(found.solutions), list(found.used), found.complete,
                         [(fz, dict(rest)) for fz, rest in found.partial])
 
@@ -475,17 +470,8 @@ def alexander_groupings(table, alexander: Laurent, limit: int = MAX_SOLUTIONS
     polynomials asked about (the same values recur across the frames of a
     run); a search cut short by the wall-time budget is not remembered.
     """
-    memo = getattr(table, "_groupings_memo", None)
-    if memo is None:
-        memo = table._groupings_memo = OrderedDict()
-    key = (alexander, limit)
-    if key in memo:
-        memo.move_to_end(key)
-    else:
-        memo[key] = _groupings(table, alexander, limit)
-        if len(memo) > MEMO_SIZE:
-            memo.popitem(last=False)
-    groups, complete = memo[key]
+    groups, complete = recall(memo_for(_groupings_memos, table), (alexander, limit), MEMO_SIZE,
+                              lambda: _groupings(table, alexander, limit))
     return [list(g) for g in groups], complete
 
 

@@ -9,12 +9,13 @@ from __future__ import annotations
 
 import copy
 import weakref
-from collections import Counter, OrderedDict
+from collections import Counter
 from itertools import islice
 
 from .diagram import Diagram
 from .errors import DiagramError, KnotsiftError
 from .invariants.fingerprint import RHO_1_UP_TO, Fingerprint, fingerprint
+from .memo import memo_for, recall
 from .result import Candidate, IdentifyResult
 from .table import ReferenceTable, open_table
 
@@ -86,7 +87,7 @@ def match_fingerprint(fp: Fingerprint, table: ReferenceTable) -> tuple[str, list
 #: Separation answers remembered per table (least recently used dropped first).
 SEPARATION_MEMO_SIZE = 4096
 
-_separation_memo: "weakref.WeakKeyDictionary[ReferenceTable, OrderedDict]" = \
+_separation_memo: "weakref.WeakKeyDictionary" = \
     weakref.WeakKeyDictionary()
 
 
@@ -100,15 +101,8 @@ def _separation(fp: Fingerprint, table: ReferenceTable, candidates: list[Candida
     """
     texts = fp.texts()
     key = (tuple(texts.items()), tuple(c.name for c in candidates))
-    memo = _separation_memo.setdefault(table, OrderedDict())
-    found = memo.get(key)
-    if found is None:
-        found = memo[key] = _separation_of(texts, table, candidates, fp.key())
-        if len(memo) > SEPARATION_MEMO_SIZE:
-            memo.popitem(last=False)
-    else:
-        memo.move_to_end(key)
-    out, notes = found
+    out, notes = recall(memo_for(_separation_memo, table), key, SEPARATION_MEMO_SIZE,
+                        lambda: _separation_of(texts, table, candidates, fp.key()))
     return ({inv: {"value": row["value"], "count": row["count"], "labels": list(row["labels"]),
                    "others_separated_by": {k: list(v) for k, v in
                                            row["others_separated_by"].items()}}
@@ -353,7 +347,7 @@ PART_MEMO_SIZE = 4096
 #: Staged invariants of simplified diagrams remembered per table (the same).
 STAGED_MEMO_SIZE = 4096
 
-_staged_memo: "weakref.WeakKeyDictionary[ReferenceTable, OrderedDict]" = \
+_staged_memo: "weakref.WeakKeyDictionary" = \
     weakref.WeakKeyDictionary()
 
 
@@ -383,19 +377,19 @@ def _staged_invariants(simple: Diagram, table: ReferenceTable, staged):
     """
     from .budget import Staged, staged_invariants
 
-    key = (simple.crossings, simple.free_loops) + _budget_key()
-    memo = _staged_memo.setdefault(table, OrderedDict())
-    found = memo.get(key)
-    if found is not None:
-        memo.move_to_end(key)
-        return _copy_staged(found, staged)
-    staged_invariants(simple, table, staged=staged)
-    memo[key] = _copy_staged(staged, Staged())
-    if len(memo) > STAGED_MEMO_SIZE:
-        memo.popitem(last=False)
-    return staged
+    computed = []
 
-_part_memo: "weakref.WeakKeyDictionary[ReferenceTable, OrderedDict]" = weakref.WeakKeyDictionary()
+    def compute():
+        staged_invariants(simple, table, staged=staged)
+        computed.append(True)
+        return _copy_staged(staged, Staged())
+
+    found = recall(memo_for(_staged_memo, table), (simple.crossings, simple.free_loops)
+                   + _budget_key(), STAGED_MEMO_SIZE, compute)
+    return staged if computed else _copy_staged(found, staged)
+
+
+_part_memo: "weakref.WeakKeyDictionary" = weakref.WeakKeyDictionary()
 
 
 def _part_factors(part: Diagram, table: ReferenceTable) -> list[dict] | None:
@@ -409,42 +403,42 @@ def _part_factors(part: Diagram, table: ReferenceTable) -> list[dict] | None:
     keyed by the PD code and the budget's Jones settings; parts recur across
     the frames of a run), except those cut short by the wall-time budget.
     """
-    from .budget import Staged, TooComplex, item_budget
+    from .budget import TooComplex
 
-    key = (part.crossings, part.free_loops) + _budget_key()
-    memo = _part_memo.setdefault(table, OrderedDict())
-    if key in memo:
-        memo.move_to_end(key)
-        found = memo[key]
-        return None if found is None else [dict(f) for f in found]
-    with item_budget():
-        try:
-            # parts come simplified (connected_sum_factors tidies each), and simplify is
-            # idempotent (tests/test_identification.py checks it), so not again here
-            simple = part
-            status, candidates = "", []
-            if simple.number_of_components() == 1:
-                staged = _staged_invariants(simple, table, Staged())
-                status, candidates = match_fingerprint(staged.fingerprint(), table)
-            if not candidates:  # the long way: connected sums, links
-                r = identify_diagram(part, table, simplified=simple,
-                                     staged=staged if status else None)
-                status, candidates = r.status, r.candidates
-        except TooComplex:
-            return None
-    found = None
-    if status == "identified":
-        c = candidates[0]
-        if c.factors:
-            found = [dict(f) for f in c.factors]
-        elif c.kind == "prime":
-            found = [{"name": c.name, "label": c.label, "chirality": c.chirality}]
-        elif c.kind == "unknot":
-            found = []
-    memo[key] = found
-    if len(memo) > PART_MEMO_SIZE:
-        memo.popitem(last=False)
+    try:
+        found = recall(memo_for(_part_memo, table), (part.crossings, part.free_loops)
+                       + _budget_key(), PART_MEMO_SIZE, lambda: _part_answer(part, table))
+    except TooComplex:
+        return None
     return None if found is None else [dict(f) for f in found]
+
+
+def _part_answer(part: Diagram, table: ReferenceTable) -> list[dict] | None:
+    """What :func:`_part_factors` remembers (raises TooComplex past the wall time)."""
+    from .budget import Staged, item_budget
+
+    with item_budget():
+        # parts come simplified (connected_sum_factors tidies each), and simplify is
+        # idempotent (tests/test_identification.py checks it), so not again here
+        simple = part
+        status, candidates = "", []
+        if simple.number_of_components() == 1:
+            staged = _staged_invariants(simple, table, Staged())
+            status, candidates = match_fingerprint(staged.fingerprint(), table)
+        if not candidates:  # the long way: connected sums, links
+            r = identify_diagram(part, table, simplified=simple,
+                                 staged=staged if status else None)
+            status, candidates = r.status, r.candidates
+    if status != "identified":
+        return None
+    c = candidates[0]
+    if c.factors:
+        return [dict(f) for f in c.factors]
+    if c.kind == "prime":
+        return [{"name": c.name, "label": c.label, "chirality": c.chirality}]
+    if c.kind == "unknot":
+        return []
+    return None
 
 
 def _split_parts(simple: Diagram, table: ReferenceTable):

@@ -173,13 +173,12 @@ def test_unknot_from_invariants_only_is_evidence(monkeypatch):
 # invariant values (bounded memos).  The ground truth is the same question
 # answered with every memo empty.
 def _clear_memos():
+    import knotsift.factorisation as fact
     import knotsift.identification as ident
 
-    for memo in (ident._staged_memo, ident._part_memo, ident._separation_memo):
+    for memo in (ident._staged_memo, ident._part_memo, ident._separation_memo,
+                 fact._groupings_memos, fact._factorisation_memos):
         memo.clear()
-    for attr in ("_groupings_memo", "_factorisations_memo"):
-        if hasattr(TABLE, attr):
-            delattr(TABLE, attr)
 
 
 def _sum_of(labels, seed):
