@@ -1,15 +1,14 @@
 """Bounded memos: what is kept, what is dropped, and what is never kept."""
 
+from collections import OrderedDict
+
 import pytest
 
 from knotsift.memo import recall
 
 
 def test_keeps_answers_and_drops_the_least_recently_used():
-    memo, calls = {}, []
-    from collections import OrderedDict
-
-    memo = OrderedDict()
+    memo, calls = OrderedDict(), []
 
     def compute(k):
         calls.append(k)
@@ -22,8 +21,6 @@ def test_keeps_answers_and_drops_the_least_recently_used():
 
 
 def test_none_is_an_answer_and_failures_are_not_kept():
-    from collections import OrderedDict
-
     memo, calls = OrderedDict(), []
 
     def nothing():
