@@ -125,13 +125,7 @@ def _separation_of(texts: dict[str, str], table: ReferenceTable,
             continue
         sharing = table.by_invariant(inv, value)
         others = list(islice((f for f in sharing if f.label not in matched_labels), 25))
-        separated_by = {}
-        for f in others:
-            row = {"jones": f.jones, "alexander": f.alexander,
-                   "determinant": str(f.determinant), "signature": str(f.signature),
-                   "rho_1": f.rho_1, "homology": f.homology}
-            separated_by[f.label] = [k for k in INVARIANT_NAMES
-                                     if texts[k] != "" and row[k] != texts[k]]
+        separated_by = {f.label: _differing(f, texts) for f in others}
         out[inv] = {"value": value, "count": len(sharing),
                     "labels": [f.label for f in sharing[:25]],
                     "others_separated_by": separated_by}
@@ -142,11 +136,19 @@ def _separation_of(texts: dict[str, str], table: ReferenceTable,
                 continue
             shown = ", ".join(f.label for f in other_knots[:6]) + (
                 " ..." if len(other_knots) > 6 else "")
-            what = sorted({k for f in other_knots[:25] for k in separated_by[f.label]})
+            what = sorted({k for f in other_knots[:25] for k in _differing(f, texts)})
             by = " and ".join(INVARIANT_NAMES[k] for k in what) or "nothing computed here"
             notes.append(f"{INVARIANT_NAMES[inv]} alone cannot tell this knot from "
                          f"{shown}; {by} separate{'s' if len(what) == 1 else ''} them")
     return out, notes
+
+
+def _differing(form, texts: dict[str, str]) -> list[str]:
+    """The computed invariants (non-empty ``texts``) whose value ``form`` does not share."""
+    row = {"jones": form.jones, "alexander": form.alexander,
+           "determinant": str(form.determinant), "signature": str(form.signature),
+           "rho_1": form.rho_1, "homology": form.homology}
+    return [k for k in INVARIANT_NAMES if texts[k] != "" and row[k] != texts[k]]
 
 
 def _chirality_note(fp: Fingerprint, cand: Candidate) -> str:

@@ -271,3 +271,31 @@ def test_separation_handed_out_is_a_copy():
     assert identify_diagram(d, TABLE).to_dict()["separation"] != first.separation
     _clear_memos()
     assert identify_diagram(d, TABLE).separation == identify_diagram(d, TABLE).separation
+
+
+def test_separation_note_when_many_forms_share_a_value(monkeypatch):
+    # More than 25 other forms share the Alexander polynomial, and one of the first 25 is
+    # the candidate's own mirror form: the note must still say what separates the others
+    # (this raised KeyError when the note looked only at the first 25 forms' rows).
+    from knotsift import identification as ident
+    from knotsift.identification import identify_diagram
+    from knotsift.invariants.fingerprint import fingerprint
+
+    d = _form("3_1")
+    cand = identify_diagram(d, TABLE).candidates[0]
+    fp = fingerprint(d)
+    real = TABLE.by_invariant
+    mirror = [f for f in TABLE.forms_of(cand.name) if f.label != cand.label]
+    strangers = [f for f in TABLE.all_forms()
+                 if f.name != cand.name and f.jones != fp.texts()["jones"]][:30]
+
+    def crowded(inv, value):
+        return mirror + strangers if inv == "alexander" else real(inv, value)
+
+    monkeypatch.setattr(TABLE, "by_invariant", crowded)
+    _clear_memos()
+    out, notes = ident._separation_of(fp.texts(), TABLE, [cand], fp.key())
+    assert mirror and out["alexander"]["count"] == len(mirror) + 30
+    note = [n for n in notes if n.startswith("the Alexander polynomial alone")]
+    assert len(note) == 1 and "the Jones polynomial" in note[0].split(";")[1]
+    _clear_memos()
