@@ -120,7 +120,8 @@ def split_along(diagram: Diagram, e: int, f: int) -> tuple[Diagram, Diagram]:
              for i, x in enumerate(xs) if i in side]
     second = [tuple(f if label == e else label for label in x)
               for i, x in enumerate(xs) if i not in side]
-    return Diagram(first, diagram.free_loops), Diagram(second, 0)
+    # cutting a valid planar code along a decomposing circle keeps it valid and planar
+    return Diagram._trusted(first, diagram.free_loops), Diagram._trusted(second, 0)
 
 
 def connected_sum_factors(diagram: Diagram, simplify_pieces: bool = True) -> list[Diagram]:

@@ -83,6 +83,21 @@ class Diagram:
         self._analyse()
 
     @classmethod
+    def _trusted(cls, crossings: Iterable[tuple[int, int, int, int]],
+                 free_loops: int = 0) -> "Diagram":
+        """A diagram from a code built inside knotsift from a valid one, e.g. cut along a circle.
+
+        The crossings must be 4-tuples of int forming a planar code (the
+        caller's construction guarantees it); labels and orientations are
+        still analysed, and checked, but planarity is not.
+        """
+        self = object.__new__(cls)
+        self._crossings = tuple(crossings)
+        self._free_loops = free_loops
+        self._analyse(planar_known=True)
+        return self
+
+    @classmethod
     def unknot(cls) -> "Diagram":
         """The circle with no crossings."""
         return cls([], free_loops=1)
@@ -188,7 +203,124 @@ class Diagram:
         return faces
 
     # -- analysis of the code ---------------------------------------------
-    def _analyse(self) -> None:
+    # The checks run twice over: a fast pass that only detects a fault, and, when
+    # it finds one, the original step-by-step pass that names it (the message
+    # and the fault reported are those of the step-by-step pass).
+    def _analyse(self, planar_known: bool = False) -> None:
+        xs = self._crossings
+        darts: dict[int, list[Dart]] = {}
+        for i, x in enumerate(xs):
+            for p, label in enumerate(x):
+                ds = darts.get(label)
+                if ds is None:
+                    darts[label] = [(i, p)]
+                else:
+                    ds.append((i, p))
+        for ds in darts.values():
+            if len(ds) != 2:
+                return self._analyse_strict()
+        incoming: dict[Dart, bool] = {}
+        stack: list[Dart] = []
+        for i in range(len(xs)):
+            incoming[(i, 0)] = True
+            incoming[(i, 2)] = False
+            stack.append((i, 0))
+            stack.append((i, 2))
+        assumed: list[int] = []
+        while True:
+            while stack:
+                d = stack.pop()
+                inc = incoming[d]
+                i, p = d
+                a, b = darts[xs[i][p]]
+                for o in (b if a == d else a, (i, (p + 2) % 4)):
+                    known = incoming.get(o)
+                    if known is None:
+                        incoming[o] = not inc
+                        stack.append(o)
+                    elif known == inc:
+                        return self._analyse_strict()
+            free = [d for ds in darts.values() for d in ds if d not in incoming]
+            if not free:
+                break
+            label, tail = _assumed_tail(xs, darts, free)
+            incoming[tail] = False
+            stack.append(tail)
+            assumed.append(label)
+        self._set_analysis(darts, incoming, assumed)
+        if not planar_known and not self._is_planar():
+            self._check_planar()
+
+    def _set_analysis(self, darts: dict[int, list[Dart]], incoming: dict[Dart, bool],
+                      assumed: list[int]) -> None:
+        """Keep the darts and orientation found; derive signs and components from them."""
+        xs = self._crossings
+        self._darts = darts
+        self._incoming = incoming
+        self._signs = tuple(1 if incoming[(i, 3)] else -1 for i in range(len(xs)))
+        # components as cyclic lists of labels in the direction of travel
+        seen: set[int] = set()
+        comps: list[tuple[int, ...]] = []
+        for start in sorted(darts):
+            if start in seen:
+                continue
+            comp = []
+            label = start
+            while label not in seen:
+                seen.add(label)
+                comp.append(label)
+                a, b = darts[label]
+                i, p = a if incoming[a] else b
+                label = xs[i][(p + 2) % 4]
+            comps.append(tuple(comp))
+        self._components = tuple(comps)
+        self._assumed = tuple(
+            k for k, comp in enumerate(comps) if any(a in comp for a in assumed))
+
+    def _is_planar(self) -> bool:
+        """Euler's formula (faces = crossings + 2) on every connected part of the code."""
+        xs = self._crossings
+        n = len(xs)
+        if not n:
+            return True
+        darts = self._darts
+        # darts as integers 4 i + p; partner[d] is the dart at the edge's other end
+        partner = [0] * (4 * n)
+        for (i, p), (j, q) in darts.values():
+            partner[4 * i + p] = 4 * j + q
+            partner[4 * j + q] = 4 * i + p
+        part = [-1] * n
+        parts = 0
+        for s in range(n):
+            if part[s] >= 0:
+                continue
+            part[s] = parts
+            todo = [s]
+            while todo:
+                i = todo.pop()
+                for d in range(4 * i, 4 * i + 4):
+                    j = partner[d] >> 2
+                    if part[j] < 0:
+                        part[j] = parts
+                        todo.append(j)
+            parts += 1
+        faces = [0] * parts
+        seen = bytearray(4 * n)
+        for d0 in range(4 * n):
+            if seen[d0]:
+                continue
+            d = d0
+            while not seen[d]:
+                seen[d] = 1
+                d = partner[d]
+                d = (d & ~3) | ((d + 1) & 3)
+            faces[part[d0 >> 2]] += 1
+        crossings = [0] * parts
+        for k in part:
+            crossings[k] += 1
+        return all(f == v + 2 for f, v in zip(faces, crossings))
+
+    def _analyse_strict(self) -> None:
         xs = self._crossings
         darts: dict[int, list[Dart]] = {}
         for i, x in enumerate(xs):
@@ -241,39 +373,10 @@ class Diagram:
             free = [d for ds in darts.values() for d in ds if d not in incoming]
             if not free:
                 break
-            # A component that never passes under: orient it by its labels.
-            d0 = min(free, key=lambda d: xs[d[0]][d[1]])
-            label = xs[d0[0]][d0[1]]
-            first, second = darts[label]
-            # The edge runs into the dart whose continuation has the smaller
-            # label, so that consecutive labels increase along the travel.
-            nxt_a = xs[first[0]][(first[1] + 2) % 4]
-            nxt_b = xs[second[0]][(second[1] + 2) % 4]
-            tail = second if nxt_a <= nxt_b else first
-            # edge `label` leaves `tail`'s crossing: the dart at tail is outgoing
-            # and the edge then arrives at the other dart.
+            label, tail = _assumed_tail(xs, darts, free)
             stack += assign(tail, False, "assumed orientation")
             assumed.append(label)
-        self._incoming = incoming
-        self._signs = tuple(1 if incoming[(i, 3)] else -1 for i in range(len(xs)))
-        # components as cyclic lists of labels in the direction of travel
-        seen: set[int] = set()
-        comps: list[tuple[int, ...]] = []
-        for start in sorted(darts):
-            if start in seen:
-                continue
-            comp = []
-            label = start
-            while label not in seen:
-                seen.add(label)
-                comp.append(label)
-                head = next(d for d in darts[label] if incoming[d])
-                i, p = head
-                label = xs[i][(p + 2) % 4]
-            comps.append(tuple(comp))
-        self._components = tuple(comps)
-        self._assumed = tuple(
-            k for k, comp in enumerate(comps) if any(a in comp for a in assumed))
+        self._set_analysis(darts, incoming, assumed)
         self._check_planar()
 
     def _check_planar(self) -> None:
@@ -390,8 +493,28 @@ class Diagram:
     # -- operations -------------------------------------------------------
     def relabel(self, mapping: dict[int, int]) -> "Diagram":
         """Rename edge labels through ``mapping`` (labels not in it keep their names)."""
-        return Diagram([tuple(mapping.get(e, e) for e in x) for x in self._crossings],
-                       self._free_loops)
+        get = mapping.get
+        crossings = [tuple(get(e, e) for e in x) for x in self._crossings]
+        renamed = {label: get(label, label) for label in self._darts}
+        if self._assumed or len(set(renamed.values())) != len(renamed) or any(
+                isinstance(v, bool) or not isinstance(v, int) for v in renamed.values()):
+            return Diagram(crossings, self._free_loops)  # analysed afresh
+        # a one-to-one renaming keeps every orientation (none depends on label order
+        # here) and planarity; only the components' order and starting labels change
+        new = object.__new__(Diagram)
+        new._crossings = tuple(crossings)
+        new._free_loops = self._free_loops
+        new._darts = {renamed[label]: list(ds) for label, ds in self._darts.items()}
+        new._incoming = self._incoming
+        new._signs = self._signs
+        comps = []
+        for comp in self._components:
+            labels = [renamed[label] for label in comp]
+            k = labels.index(min(labels))
+            comps.append(tuple(labels[k:] + labels[:k]))
+        new._components = tuple(sorted(comps))
+        new._assumed = ()
+        return new
 
     def standard_labels(self) -> "Diagram":
         """Relabel edges 1, 2, 3, ... along each component in the direction of travel."""
@@ -484,6 +607,21 @@ class Diagram:
     def __repr__(self) -> str:
         extra = f", free_loops={self._free_loops}" if self._free_loops else ""
         return f"Diagram({[list(x) for x in self._crossings]!r}{extra})"
+
+
+def _assumed_tail(xs, darts: dict[int, list[Dart]], free: list[Dart]) -> tuple[int, Dart]:
+    """For a component that never passes under: the edge that orients it and its outgoing dart.
+
+    The component is oriented by its labels: its smallest free label runs into
+    the dart whose continuation has the smaller label, so that consecutive
+    labels increase along the travel; the edge leaves the other dart's crossing.
+    """
+    d0 = min(free, key=lambda d: xs[d[0]][d[1]])
+    label = xs[d0[0]][d0[1]]
+    first, second = darts[label]
+    nxt_a = xs[first[0]][(first[1] + 2) % 4]
+    nxt_b = xs[second[0]][(second[1] + 2) % 4]
+    return label, (second if nxt_a <= nxt_b else first)
 
 
 def join_edges(crossings: Sequence[Sequence[int]], drop: set[int],

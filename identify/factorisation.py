@@ -20,11 +20,13 @@ proof: a prime knot beyond the table may share all these invariants.
 
 from __future__ import annotations
 
+import weakref
 from dataclasses import dataclass, field
 from fractions import Fraction
 
 from .budget import check_deadline
 from .laurent import Laurent
+from .memo import memo_for, recall
 
 __all__ = [
     "Factor",
@@ -40,6 +42,11 @@ __all__ = [
 MAX_SOLUTIONS = 200
 #: At most this many steps of the search; past them it stops and says it is incomplete.
 MAX_STEPS = 20000
+
+#: Connected-sum answers remembered per table (least recently used dropped first).
+MEMO_SIZE = 4096
+_groupings_memos: weakref.WeakKeyDictionary = weakref.WeakKeyDictionary()
+_factorisation_memos: weakref.WeakKeyDictionary = weakref.WeakKeyDictionary()
 
 #: Integer points where a divisor's value must divide the remainder's (a cheap filter
 #: before exact division: P = Q R in Z[s] gives Q(k) | P(k), with s = t^(1/2)).
@@ -337,7 +344,24 @@ def factorisations(table, alexander: Laurent, determinant: int | None = None,
     >>> a = Laurent.parse("t^-1 - 1 + t")
     >>> [s.label for s in factorisations(t, a * a, 9, -4, v * v).solutions]
     ['3_1#3_1']
+
+    Notes
+    -----
+    Answers are remembered per table for the last :data:`MEMO_SIZE`
+    questions (each call gets its own copy); a search cut short by the
+    wall-time budget is not remembered.
     """
+    key = (alexander, determinant, signature, jones, limit, partial, max_steps)
+    found = recall(memo_for(_factorisation_memos, table), key, MEMO_SIZE,
+                   lambda: _factorisations(table, alexander, determinant, signature, jones,
+                                           limit, partial, max_steps))
+    return FactorSearch(list(found.solutions), list(found.used), found.complete,
+                        [(fz, dict(rest)) for fz, rest in found.partial])
+
+
+def _factorisations(table, alexander: Laurent, determinant: int | None,
+                    signature: int | None, jones: Laurent | None, limit: int, partial: bool,
+                    max_steps: int) -> FactorSearch:
     with_jones = jones is not None
     with_sig = signature is not None
     classes = _classes(table, with_jones, with_sig)
@@ -439,7 +463,19 @@ def alexander_groupings(table, alexander: Laurent, limit: int = MAX_SOLUTIONS
         Each grouping lists its factors, fewest factors first.
     complete : bool
         False when cut at ``limit``.
+
+    Notes
+    -----
+    Answers are remembered per table for the last :data:`MEMO_SIZE`
+    polynomials asked about (the same values recur across the frames of a
+    run); a search cut short by the wall-time budget is not remembered.
     """
+    groups, complete = recall(memo_for(_groupings_memos, table), (alexander, limit), MEMO_SIZE,
+                              lambda: _groupings(table, alexander, limit))
+    return [list(g) for g in groups], complete
+
+
+def _groupings(table, alexander: Laurent, limit: int) -> tuple[list[list[str]], bool]:
     classes = _classes(table, False, False)
     found: list[list[_Class]] = []
     complete = [True]

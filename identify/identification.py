@@ -7,11 +7,15 @@ table lookup -> :class:`~knotsift.result.IdentifyResult`.
 
 from __future__ import annotations
 
+import copy
+import weakref
 from collections import Counter
+from itertools import islice
 
 from .diagram import Diagram
 from .errors import DiagramError, KnotsiftError
 from .invariants.fingerprint import RHO_1_UP_TO, Fingerprint, fingerprint
+from .memo import memo_for, recall
 from .result import Candidate, IdentifyResult
 from .table import ReferenceTable, open_table
 
@@ -80,43 +84,71 @@ def match_fingerprint(fp: Fingerprint, table: ReferenceTable) -> tuple[str, list
     return _candidates_of(forms, table, computed)
 
 
+#: Separation answers remembered per table (least recently used dropped first).
+SEPARATION_MEMO_SIZE = 4096
+
+_separation_memo: "weakref.WeakKeyDictionary" = \
+    weakref.WeakKeyDictionary()
+
+
 def _separation(fp: Fingerprint, table: ReferenceTable, candidates: list[Candidate]
                 ) -> tuple[dict, list[str]]:
-    """How many table entries share each invariant with the input, and what tells them apart."""
+    """How many table entries share each invariant with the input, and what tells them apart.
+
+    A function of the invariants' texts and the candidates' names, remembered
+    per table for the last :data:`SEPARATION_MEMO_SIZE` of them (each call gets
+    its own copy).
+    """
     texts = fp.texts()
+    key = (tuple(texts.items()), tuple(c.name for c in candidates))
+    out, notes = recall(memo_for(_separation_memo, table), key, SEPARATION_MEMO_SIZE,
+                        lambda: _separation_of(texts, table, candidates, fp.key()))
+    return ({inv: {"value": row["value"], "count": row["count"], "labels": list(row["labels"]),
+                   "others_separated_by": {k: list(v) for k, v in
+                                           row["others_separated_by"].items()}}
+             for inv, row in out.items()}, list(notes))
+
+
+def _separation_of(texts: dict[str, str], table: ReferenceTable,
+                   candidates: list[Candidate], key: str) -> tuple[dict, list[str]]:
     out: dict[str, dict] = {}
     notes: list[str] = []
     matched_labels = set()
     for c in candidates:
         for f in table.forms_of(c.name):
-            if f.fingerprint == fp.key():
+            if f.fingerprint == key:
                 matched_labels.add(f.label)
+    matched_names = {c.name for c in candidates}
     for inv in INVARIANT_NAMES:
         value = texts[inv]
         if value == "":
             continue
         sharing = table.by_invariant(inv, value)
-        labels = [f.label for f in sharing]
-        others = [f for f in sharing if f.label not in matched_labels]
-        matched_names = {c.name for c in candidates}
-        other_knots = [f for f in others if f.name not in matched_names]
-        separated_by = {}
-        for f in others[:25]:
-            row = {"jones": f.jones, "alexander": f.alexander,
-                   "determinant": str(f.determinant), "signature": str(f.signature),
-                   "rho_1": f.rho_1, "homology": f.homology}
-            separated_by[f.label] = [k for k in INVARIANT_NAMES
-                                     if texts[k] != "" and row[k] != texts[k]]
-        out[inv] = {"value": value, "count": len(sharing), "labels": labels[:25],
+        others = list(islice((f for f in sharing if f.label not in matched_labels), 25))
+        separated_by = {f.label: _differing(f, texts) for f in others}
+        out[inv] = {"value": value, "count": len(sharing),
+                    "labels": [f.label for f in sharing[:25]],
                     "others_separated_by": separated_by}
-        if candidates and other_knots and inv in ("jones", "alexander"):
+        if candidates and inv in ("jones", "alexander"):
+            other_knots = [f for f in sharing
+                           if f.label not in matched_labels and f.name not in matched_names]
+            if not other_knots:
+                continue
             shown = ", ".join(f.label for f in other_knots[:6]) + (
                 " ..." if len(other_knots) > 6 else "")
-            what = sorted({k for f in other_knots[:25] for k in separated_by[f.label]})
+            what = sorted({k for f in other_knots[:25] for k in _differing(f, texts)})
             by = " and ".join(INVARIANT_NAMES[k] for k in what) or "nothing computed here"
             notes.append(f"{INVARIANT_NAMES[inv]} alone cannot tell this knot from "
                          f"{shown}; {by} separate{'s' if len(what) == 1 else ''} them")
     return out, notes
+
+
+def _differing(form, texts: dict[str, str]) -> list[str]:
+    """The computed invariants (non-empty ``texts``) whose value ``form`` does not share."""
+    row = {"jones": form.jones, "alexander": form.alexander,
+           "determinant": str(form.determinant), "signature": str(form.signature),
+           "rho_1": form.rho_1, "homology": form.homology}
+    return [k for k in INVARIANT_NAMES if texts[k] != "" and row[k] != texts[k]]
 
 
 def _chirality_note(fp: Fingerprint, cand: Candidate) -> str:
@@ -312,6 +344,105 @@ def connected_sum_parts(simple: Diagram) -> list[Diagram]:
     return parts if len(parts) >= 2 else []
 
 
+#: Parts of split diagrams remembered per table (least recently used dropped first).
+PART_MEMO_SIZE = 4096
+#: Staged invariants of simplified diagrams remembered per table (the same).
+STAGED_MEMO_SIZE = 4096
+
+_staged_memo: "weakref.WeakKeyDictionary" = \
+    weakref.WeakKeyDictionary()
+
+
+def _budget_key() -> tuple:
+    """The settings of the current budget that decide which invariants are computed."""
+    from .budget import current_budget
+
+    b = current_budget()
+    return (b.jones, b.jones_memory, b.jones_seconds, b.jones_always)
+
+
+def _copy_staged(source, target):
+    target.values = dict(source.values)
+    target.jones, target.cost, target.note, target.no_sum = \
+        source.jones, copy.copy(source.cost), source.note, source.no_sum
+    return target
+
+
+def _staged_invariants(simple: Diagram, table: ReferenceTable, staged):
+    """``staged_invariants(simple, table, staged=staged)``, remembered per table.
+
+    The invariants of a simplified diagram and what was skipped are a function
+    of its PD code, the table and the budget's Jones settings; the last
+    :data:`STAGED_MEMO_SIZE` are kept (small diagrams, trefoils above all,
+    recur across the frames of a run).  Computations cut short by the wall-time
+    budget raise and are not kept; ``staged`` then holds what was computed.
+    """
+    from .budget import Staged, staged_invariants
+
+    computed = []
+
+    def compute():
+        staged_invariants(simple, table, staged=staged)
+        computed.append(True)
+        return _copy_staged(staged, Staged())
+
+    found = recall(memo_for(_staged_memo, table), (simple.crossings, simple.free_loops)
+                   + _budget_key(), STAGED_MEMO_SIZE, compute)
+    return staged if computed else _copy_staged(found, staged)
+
+
+_part_memo: "weakref.WeakKeyDictionary" = weakref.WeakKeyDictionary()
+
+
+def _part_factors(part: Diagram, table: ReferenceTable) -> list[dict] | None:
+    """The table factors of one part of a split diagram ([] for the unknot), or None.
+
+    None when the part is not identified, or is a composite named by the table
+    itself (left to the invariants).  Exactly what :func:`identify_diagram`
+    says of the part, reached by the shortest path: when the part's whole
+    fingerprint is in the table the rest of the result (separation, notes,
+    bounds) is not built.  Answers are remembered per table (a bounded memo
+    keyed by the PD code and the budget's Jones settings; parts recur across
+    the frames of a run), except those cut short by the wall-time budget.
+    """
+    from .budget import TooComplex
+
+    try:
+        found = recall(memo_for(_part_memo, table), (part.crossings, part.free_loops)
+                       + _budget_key(), PART_MEMO_SIZE, lambda: _part_answer(part, table))
+    except TooComplex:
+        return None
+    return None if found is None else [dict(f) for f in found]
+
+
+def _part_answer(part: Diagram, table: ReferenceTable) -> list[dict] | None:
+    """What :func:`_part_factors` remembers (raises TooComplex past the wall time)."""
+    from .budget import Staged, item_budget
+
+    with item_budget():
+        # parts come simplified (connected_sum_factors tidies each), and simplify is
+        # idempotent (tests/test_identification.py checks it), so not again here
+        simple = part
+        status, candidates = "", []
+        if simple.number_of_components() == 1:
+            staged = _staged_invariants(simple, table, Staged())
+            status, candidates = match_fingerprint(staged.fingerprint(), table)
+        if not candidates:  # the long way: connected sums, links
+            r = identify_diagram(part, table, simplified=simple,
+                                 staged=staged if status else None)
+            status, candidates = r.status, r.candidates
+    if status != "identified":
+        return None
+    c = candidates[0]
+    if c.factors:
+        return [dict(f) for f in c.factors]
+    if c.kind == "prime":
+        return [{"name": c.name, "label": c.label, "chirality": c.chirality}]
+    if c.kind == "unknot":
+        return []
+    return None
+
+
 def _split_parts(simple: Diagram, table: ReferenceTable):
     """(candidate, note) when the diagram splits and every part is identified, else None."""
     parts = connected_sum_parts(simple)
@@ -319,16 +450,10 @@ def _split_parts(simple: Diagram, table: ReferenceTable):
         return None
     factors = []
     for part in parts:
-        r = identify_diagram(part, table)
-        if r.status != "identified":
+        found = _part_factors(part, table)
+        if found is None:
             return None
-        c = r.candidates[0]
-        if c.factors:
-            factors.extend(c.factors)
-        elif c.kind == "prime":
-            factors.append({"name": c.name, "label": c.label, "chirality": c.chirality})
-        elif c.kind != "unknot":
-            return None  # a table composite part: leave it to the invariants
+        factors.extend(found)
     if len(factors) < 2:
         return None
     from .factorisation import Factor, Factorisation
@@ -488,7 +613,7 @@ def identify_diagram(diagram: Diagram, table: ReferenceTable | None = None,
         Status ``too complex`` when the wall-time budget ran out, with what
         was computed before.
     """
-    from .budget import Staged, TooComplex, item_budget, staged_invariants
+    from .budget import Staged, TooComplex, item_budget
     from .simplify import simplify
 
     table = table or open_table()
@@ -506,7 +631,7 @@ def identify_diagram(diagram: Diagram, table: ReferenceTable | None = None,
 
                 return identify_link_diagram(diagram, simple, table, source, notation)
             if not given:
-                staged_invariants(simple, table, staged=staged)
+                _staged_invariants(simple, table, staged)
             _finish_result(result, staged, simple, table)
             _unknot_basis(result)
         except TooComplex as exc:

@@ -52,6 +52,69 @@ def _format_exponent2(e2: int) -> str:
     return f"({e2}/2)"
 
 
+def _digits(text: str) -> bool:
+    """True for a non-empty run of ASCII digits."""
+    return text.isascii() and text.isdigit()
+
+
+def _parse_canonical(text: str, variable: str) -> "Laurent | None":
+    """The polynomial whose canonical text (:meth:`Laurent.to_text`) is ``text``, else None.
+
+    The table and every result store polynomials in canonical text, and
+    parsing them is frequent (the connected-sum search reads every table
+    polynomial once per process).  Terms are split at " + " and " - " and read
+    directly; the answer is kept only when its own canonical text is ``text``
+    again, which proves it is what the general parser would give.  Any other
+    text (spaces elsewhere, ``**``, ``1/t``, ...) returns None and goes to the
+    general parser.
+    """
+    if not text or not variable:
+        return None
+    pieces = text.split(" ")
+    signs = pieces[1::2]
+    bodies = pieces[0::2]
+    if len(bodies) != len(signs) + 1:
+        return None
+    terms: dict[int, int] = {}
+    for k, body in enumerate(bodies):
+        negative = k == 0 and body.startswith("-")
+        if negative:
+            body = body[1:]
+        elif k and signs[k - 1] not in ("+", "-"):
+            return None
+        elif k:
+            negative = signs[k - 1] == "-"
+        head, var, power = body.partition(variable)
+        if not var:
+            if not _digits(head):
+                return None
+            c, e2 = int(head), 0
+        else:
+            if head and not _digits(head):
+                return None
+            c = int(head) if head else 1
+            if not power:
+                e2 = 2
+            elif power.startswith("^(") and power.endswith("/2)"):
+                num = power[2:-3]
+                if not _digits(num.removeprefix("-")):
+                    return None
+                e2 = int(num)
+            elif power.startswith("^") and _digits(power[1:].removeprefix("-")):
+                e2 = 2 * int(power[1:])
+            else:
+                return None
+        if e2 in terms:
+            return None
+        terms[e2] = -c if negative else c
+    low = min(terms)
+    dense = [0] * (max(terms) - low + 1)
+    for e2, c in terms.items():
+        dense[e2 - low] = c
+    out = Laurent._new(low, dense)
+    return out if out.to_text(variable) == text else None
+
+
 class Laurent:
     """An exact Laurent polynomial in ``t`` with integer coefficients.
 
@@ -149,6 +212,9 @@ class Laurent:
         PolynomialError
             With the position and the reason when the text is malformed.
         """
+        fast = _parse_canonical(text, variable) if isinstance(text, str) else None
+        if fast is not None:
+            return fast
         from .polynomial_text import parse_laurent_terms
 
         return cls(parse_laurent_terms(text, variable))
@@ -183,7 +249,9 @@ class Laurent:
 
     def span(self) -> Fraction:
         """Highest minus lowest exponent (0 for a monomial)."""
-        return self.max_exponent - self.min_exponent
+        if not self._coeffs:
+            raise PolynomialError("the zero polynomial has no highest exponent")
+        return Fraction(len(self._coeffs) - 1, 2)
 
     def has_integer_exponents(self) -> bool:
         return all((self._low2 + i) % 2 == 0 for i, c in enumerate(self._coeffs) if c)

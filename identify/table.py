@@ -218,6 +218,17 @@ INVARIANT_COLUMNS = ("jones", "alexander", "determinant", "signature", "rho_1", 
                      "components")
 
 
+#: Columns of ``forms`` stored as integers (SQL converts a text argument to a number).
+_INTEGER_COLUMNS = ("determinant", "signature", "components")
+
+
+def _canonical_integer(text: str) -> bool:
+    """True when ``text`` is an integer written as ``str(int)`` writes it."""
+    digits = text[1:] if text.startswith("-") else text
+    return digits.isdigit() and digits.isascii() and (digits == "0" or digits[0] != "0") \
+        and text != "-0"
+
+
 class ReferenceTable:
     """Read-only access to a built reference table.
 
@@ -256,22 +267,44 @@ class ReferenceTable:
                 f"reads version {SCHEMA_VERSION}; {REBUILD_HINT}", value=version)
         self.metadata = rows
         self._forms_cache: list[TableForm] | None = None
+        self._indexes: dict[str, dict[str, tuple[TableForm, ...]]] = {}
+        self._knots: dict[str, dict] | None = None
 
-    # The lookups use the sqlite3 module directly: a lookup is a single indexed SELECT.
+    # The table is opened immutable, so its forms (a few hundred rows) are read once, on
+    # first use, and every lookup below is a dictionary look-up in memory: repeated
+    # lookups (million-frame runs) cost no SQL.  Memory is bounded by the table's size.
     def _forms(self, where: str, args: tuple) -> list[TableForm]:
+        """Forms matching an SQL condition, in label order (the general path)."""
         cur = self._db.execute(f"SELECT {_FORM_COLUMNS} FROM forms WHERE {where} ORDER BY label",
                                args)
         return [TableForm(r[0], r[1], bool(r[2]), *r[3:]) for r in cur.fetchall()]
 
+    def _index(self, column: str) -> dict[str, tuple[TableForm, ...]]:
+        """{text of the column's value: forms in label order}, built on first use."""
+        index = self._indexes.get(column)
+        if index is None:
+            grouped: dict[str, list[TableForm]] = {}
+            for f in self.all_forms():
+                grouped.setdefault(str(getattr(f, column)), []).append(f)
+            index = self._indexes[column] = {k: tuple(v) for k, v in grouped.items()}
+        return index
+
+    def _where(self, column: str, value) -> list[TableForm]:
+        """Forms whose ``column`` equals ``value`` as SQL compares them, in label order."""
+        key = value if isinstance(value, str) else str(value)
+        if column in _INTEGER_COLUMNS and not _canonical_integer(key):
+            return self._forms(f"{column} = ?", (value,))  # SQL's own conversion of the text
+        return list(self._index(column).get(key, ()))
+
     def by_fingerprint(self, key: str) -> list[TableForm]:
         """Forms whose whole fingerprint equals ``key`` (exact lookup)."""
-        return self._forms("fingerprint = ?", (key,))
+        return self._where("fingerprint", key)
 
     def by_invariant(self, invariant: str, value: str) -> list[TableForm]:
         """Forms sharing one invariant's canonical text."""
         if invariant not in INVARIANT_COLUMNS:
             raise TableError(f"unknown invariant column {invariant!r}", value=invariant)
-        return self._forms(f"{invariant} = ?", (value,))
+        return self._where(invariant, value)
 
     def by_invariants(self, values: dict[str, str]) -> list[TableForm]:
         """Forms agreeing with every given invariant (canonical texts)."""
@@ -280,21 +313,27 @@ class ReferenceTable:
                 raise TableError(f"unknown invariant column {invariant!r}", value=invariant)
         if not values:
             return self.all_forms()
-        where = " AND ".join(f"{k} = ?" for k in values)
-        return self._forms(where, tuple(values.values()))
+        found = None
+        for invariant, value in values.items():
+            matched = self._where(invariant, value)
+            if found is None:
+                found = matched
+            else:
+                labels = {f.label for f in matched}
+                found = [f for f in found if f.label in labels]
+            if not found:
+                break
+        return found
 
     def count_by_invariant(self, invariant: str, value: str) -> int:
-        if invariant not in INVARIANT_COLUMNS:
-            raise TableError(f"unknown invariant column {invariant!r}", value=invariant)
-        return self._db.execute(f"SELECT count(*) FROM forms WHERE {invariant} = ?",
-                                (value,)).fetchone()[0]
+        return len(self.by_invariant(invariant, value))
 
     def form(self, label: str) -> TableForm | None:
-        found = self._forms("label = ?", (label,))
+        found = self._where("label", label)
         return found[0] if found else None
 
     def forms_of(self, name: str) -> list[TableForm]:
-        return self._forms("name = ?", (name,))
+        return self._where("name", name)
 
     def all_forms(self) -> list[TableForm]:
         if self._forms_cache is None:
@@ -311,8 +350,11 @@ class ReferenceTable:
         return [dict(zip(cols, r)) for r in cur.fetchall()]
 
     def knot(self, name: str) -> dict | None:
-        found = self._entries("knots", name)
-        return found[0] if found else None
+        """The ``knots`` row of ``name`` as a dict (a fresh copy), or None."""
+        if self._knots is None:
+            self._knots = {k["name"]: k for k in self._entries("knots")}
+        found = self._knots.get(name)
+        return None if found is None else dict(found)
 
     def knots(self) -> list[dict]:
         return self._entries("knots")

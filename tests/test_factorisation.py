@@ -196,3 +196,26 @@ def test_split_seen_in_the_diagram_is_used(monkeypatch):
     assert sorted((f["name"], f["chirality"]) for f in r.factors) == [
         ("3_1", "same"), ("5_2", "mirror"), ("6_1", "same")]
     assert r.name == "3_1#5_2*#6_1"
+
+
+def test_remembered_searches_equal_fresh_ones_and_are_copies():
+    """Searches are remembered per table; the ground truth is a search on an empty memo."""
+    v = Laurent.parse("t + t^3 - t^4")
+    a = Laurent.parse("t^-1 - 1 + t")
+    import knotsift.factorisation as fact
+
+    fact._groupings_memos.clear()
+    fact._factorisation_memos.clear()
+    fresh = factorisations(TABLE, a * a * a, 27, -6, v * v * v)
+    fresh_groups = alexander_groupings(TABLE, a * a)
+    again = factorisations(TABLE, a * a * a, 27, -6, v * v * v)
+    assert again == fresh and again is not fresh
+    assert [s.label for s in again.solutions] == ["3_1#3_1#3_1"]
+    again.solutions.clear()
+    again.used.append("changed")
+    assert factorisations(TABLE, a * a * a, 27, -6, v * v * v) == fresh
+    groups, complete = alexander_groupings(TABLE, a * a)
+    assert (groups, complete) == fresh_groups and ["3_1", "3_1"] in groups
+    groups[0].append("changed")
+    groups.append(["changed"])
+    assert alexander_groupings(TABLE, a * a) == fresh_groups

@@ -165,3 +165,137 @@ def test_unknot_from_invariants_only_is_evidence(monkeypatch):
     assert r.notes[0].startswith("evidence only")
     assert any("not proven" in n for n in r.notes)
     assert "evidence, not proof" in r.to_text()
+
+
+# -- what identification remembers ------------------------------------------------
+# Identification remembers, per table, the staged invariants of a simplified
+# diagram, the answers for the parts of split diagrams and the separation of
+# invariant values (bounded memos).  The ground truth is the same question
+# answered with every memo empty.
+def _clear_memos():
+    import knotsift.factorisation as fact
+    import knotsift.identification as ident
+
+    for memo in (ident._staged_memo, ident._part_memo, ident._separation_memo,
+                 fact._groupings_memos, fact._factorisation_memos):
+        memo.clear()
+
+
+def _sum_of(labels, seed):
+    d = _form(labels[0])
+    for label in labels[1:]:
+        d = d.connected_sum(_form(label))
+    return scramble(d, 10, random.Random(seed))
+
+
+@pytest.mark.parametrize("labels", [("3_1", "4_1", "4_1"), ("3_1*", "8_20"), ("5_2", "6_1*"),
+                                    ("7_4", "3_1*", "3_1")])
+def test_remembered_answers_equal_fresh_ones(labels):
+    from knotsift.identification import identify_diagram
+
+    d = _sum_of(labels, " ".join(labels))
+    _clear_memos()
+    fresh = identify_diagram(d, TABLE).to_dict()
+    again = identify_diagram(d, TABLE).to_dict()  # every memo answers now
+    mirrored = identify_diagram(d.mirror(), TABLE).to_dict()
+    _clear_memos()
+    assert again == fresh
+    assert identify_diagram(d.mirror(), TABLE).to_dict() == mirrored
+    assert fresh["decomposition"] == "diagram" and fresh["status"] == "identified"
+    expected = sorted(TABLE.form(label).name for label in labels)
+    assert sorted(f["name"] for f in fresh["factors"]) == expected
+
+
+def test_part_answers_are_what_identify_says_of_the_part():
+    from knotsift.decomposition import connected_sum_factors
+    from knotsift.identification import _part_factors, identify_diagram
+
+    d = _sum_of(("3_1", "4_1", "5_2*"), 3)
+    parts = connected_sum_factors(d)
+    assert len(parts) == 3
+    _clear_memos()
+    for part in parts:
+        r = identify_diagram(part, TABLE)
+        c = r.candidates[0]
+        assert r.status == "identified" and c.kind == "prime"
+        want = [{"name": c.name, "label": c.label, "chirality": c.chirality}]
+        assert _part_factors(part, TABLE) == want
+        got = _part_factors(part, TABLE)  # from the memo, a copy
+        got[0]["name"] = "changed"
+        assert _part_factors(part, TABLE) == want
+
+
+def test_parts_are_not_simplified_again_because_simplify_is_idempotent():
+    """Parts of a split are taken as they come from connected_sum_factors (simplified);
+    that is only the same as simplifying them again when simplify is idempotent."""
+    from knotsift.decomposition import connected_sum_factors
+    from knotsift.simplify import simplify
+
+    rng = random.Random(11)
+    checked = 0
+    for label in [f.label for f in TABLE.all_forms()][::9]:
+        d = scramble(_form(label).connected_sum(_form("3_1")), 15, rng)
+        s = simplify(d)
+        assert simplify(s) == s
+        for part in connected_sum_factors(s):
+            assert simplify(part) == part
+            checked += 1
+    assert checked > 60
+
+
+def test_memos_stay_within_their_size(monkeypatch):
+    import knotsift.identification as ident
+    from knotsift.identification import identify_diagram
+
+    monkeypatch.setattr(ident, "STAGED_MEMO_SIZE", 3)
+    monkeypatch.setattr(ident, "PART_MEMO_SIZE", 2)
+    monkeypatch.setattr(ident, "SEPARATION_MEMO_SIZE", 2)
+    _clear_memos()
+    rng = random.Random(5)
+    for label in ("3_1", "4_1", "5_1", "5_2", "6_1", "6_2"):  # sums beyond the table
+        d = scramble(_form(label).connected_sum(_form("8_20")), 6, rng)
+        assert identify_diagram(d, TABLE).status == "identified"
+    assert len(ident._staged_memo[TABLE]) <= 3
+    assert len(ident._part_memo[TABLE]) <= 2
+    assert len(ident._separation_memo[TABLE]) <= 2
+    _clear_memos()
+
+
+def test_separation_handed_out_is_a_copy():
+    from knotsift.identification import identify_diagram
+
+    d = _form("4_1")
+    first = identify_diagram(d, TABLE)
+    first.separation["determinant"]["labels"].append("changed")
+    first.separation["jones"]["others_separated_by"].clear()
+    assert identify_diagram(d, TABLE).to_dict()["separation"] != first.separation
+    _clear_memos()
+    assert identify_diagram(d, TABLE).separation == identify_diagram(d, TABLE).separation
+
+
+def test_separation_note_when_many_forms_share_a_value(monkeypatch):
+    # More than 25 other forms share the Alexander polynomial, and one of the first 25 is
+    # the candidate's own mirror form: the note must still say what separates the others
+    # (this raised KeyError when the note looked only at the first 25 forms' rows).
+    from knotsift import identification as ident
+    from knotsift.identification import identify_diagram
+    from knotsift.invariants.fingerprint import fingerprint
+
+    d = _form("3_1")
+    cand = identify_diagram(d, TABLE).candidates[0]
+    fp = fingerprint(d)
+    real = TABLE.by_invariant
+    mirror = [f for f in TABLE.forms_of(cand.name) if f.label != cand.label]
+    strangers = [f for f in TABLE.all_forms()
+                 if f.name != cand.name and f.jones != fp.texts()["jones"]][:30]
+
+    def crowded(inv, value):
+        return mirror + strangers if inv == "alexander" else real(inv, value)
+
+    monkeypatch.setattr(TABLE, "by_invariant", crowded)
+    _clear_memos()
+    out, notes = ident._separation_of(fp.texts(), TABLE, [cand], fp.key())
+    assert mirror and out["alexander"]["count"] == len(mirror) + 30
+    note = [n for n in notes if n.startswith("the Alexander polynomial alone")]
+    assert len(note) == 1 and "the Jones polynomial" in note[0].split(";")[1]
+    _clear_memos()

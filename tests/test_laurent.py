@@ -113,3 +113,53 @@ def test_evaluate_and_span():
     assert a.is_symmetric()
     assert not Laurent.parse("t + t^3 - t^4").is_symmetric()
     assert Laurent.parse("t^2").substitute_power(-2) == Laurent.parse("t^-4")
+
+
+# -- canonical text read directly -------------------------------------------------
+# Laurent.parse reads the canonical text (the table's own) without the general
+# scanner; the general parser, polynomial_text.parse_laurent_terms, is the
+# reference for both paths.
+def _general(text: str, variable: str = "t") -> Laurent:
+    from knotsift.polynomial_text import parse_laurent_terms
+
+    return Laurent(parse_laurent_terms(text, variable))
+
+
+@given(terms)
+def test_canonical_text_read_directly_equals_general_parser(t):
+    from knotsift.laurent import _parse_canonical
+
+    p = Laurent(t)
+    for variable in ("t", "q", "x"):
+        text = p.to_text(variable)
+        assert _parse_canonical(text, variable) == _general(text, variable) == p
+
+
+@pytest.mark.parametrize("text", [
+    "t^1", "+t", "1 +  t", "t^(2/2)", "02", "t^01", "1 + -t", "2*t", "t + t", "0 + t", "1t",
+    "t^+1", "- t", "t^-0", "t^(--1/2)", "2 t", "t**2", "1/t", "t^(1/2)+1", "3 + 2t^2 - t",
+    "t^(-1/2) - 2 + t^(1/2)",
+])
+def test_other_texts_read_as_the_general_parser_reads_them(text):
+    from knotsift.laurent import _parse_canonical
+
+    fast = _parse_canonical(text, "t")
+    assert fast is None or fast.to_text() == text
+    assert Laurent.parse(text) == _general(text)
+
+
+@pytest.mark.parametrize("text", ["", "-", "²", "t^²", "t +", "2 ^ t", "t^(1/3)"])
+def test_malformed_texts_still_raise(text):
+    with pytest.raises(PolynomialError):
+        Laurent.parse(text)
+
+
+def test_every_table_polynomial_is_read_directly():
+    """The table stores canonical text, so no table polynomial needs the general scanner."""
+    from knotsift.laurent import _parse_canonical
+    from knotsift.table import open_table
+
+    texts = [x for f in open_table().all_forms() for x in (f.jones, f.alexander, f.rho_1)]
+    assert len(texts) > 1000
+    for text in texts:
+        assert _parse_canonical(text, "t") == _general(text)

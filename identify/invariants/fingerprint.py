@@ -85,7 +85,18 @@ class Fingerprint:
         return self == self.mirror()
 
     def texts(self) -> dict[str, str]:
-        """Each invariant in canonical text form (rho_1: "" when not computed)."""
+        """Each invariant in canonical text form (rho_1: "" when not computed).
+
+        Worked out once per fingerprint (it is immutable); each call returns a
+        fresh dict.
+        """
+        cached = self.__dict__.get("_texts")
+        if cached is None:
+            cached = self._texts_once()
+            object.__setattr__(self, "_texts", cached)
+        return dict(cached)
+
+    def _texts_once(self) -> dict[str, str]:
         from .double_cover import homology_text
         from .perturbed_alexander import hash_text, rho_1_hash_of
 
@@ -105,10 +116,14 @@ class Fingerprint:
 
     def key(self) -> str:
         """Canonical text of the whole fingerprint (what the table stores)."""
-        t = self.texts()
-        return (f"c={t['components']};V={t['jones']};A={t['alexander']};"
-                f"D={t['determinant']};s={t['signature']};r={t['rho_1']};"
-                f"H={t['homology']}")
+        cached = self.__dict__.get("_key")
+        if cached is None:
+            t = self.texts()
+            cached = (f"c={t['components']};V={t['jones']};A={t['alexander']};"
+                      f"D={t['determinant']};s={t['signature']};r={t['rho_1']};"
+                      f"H={t['homology']}")
+            object.__setattr__(self, "_key", cached)
+        return cached
 
     def unoriented_key(self) -> str:
         """The key shared by a knot and its mirror image (the smaller of the two keys)."""

@@ -35,6 +35,11 @@ from ..errors import InvariantError
 from ..laurent import Laurent
 from .elimination import _permutation_sign
 
+#: Up to this many crossings rho_1's points are evaluated one by one in pure
+#: Python rather than with numpy and FLINT (about as fast here, and their
+#: imports cost more than the whole computation).
+SMALL_RHO = 4
+
 __all__ = [
     "LongKnot",
     "PerturbedAlexander",
@@ -306,12 +311,18 @@ class _Plan:
         self.spread = max(-self.low, self.high, max((abs(d) for d in self.dexp), default=0))
         self.shift = sum(lk.rotation) + sum(signs)
         self._base: dict[int, tuple] = {}
+        # what :meth:`evaluate` walks through: per crossing, and the cells of g in order
+        self._per_crossing = list(zip(signs, self.dexp, self.diagonal, strict=True))
+        self._needed = [cell for term in self.terms for cell in term[1:]] + [
+            cell for _, cell in self.edges]
 
     def evaluate(self, x: int, p: int) -> tuple[int, int] | None:
         """``(det A(x), rho_1(x))`` modulo ``p``, or None where ``A(x)`` is singular."""
-        from flint import nmod_mat
-
         n = self.n
+        if n <= SMALL_RHO:  # the same residues without loading FLINT
+            from .small_matrices import MatrixModP as nmod_mat
+        else:
+            from flint import nmod_mat
         xinv = pow(x, -1, p)
         powers = {0: 1}
         for k in range(1, self.spread + 1):
@@ -326,16 +337,21 @@ class _Plan:
                 flat[index] = c % p
             cached = self._base[p] = (nmod_mat(n, n, flat, p), flat)
         m, flat = cached
+        # 1 - x^s takes two values only (s = +-1): two inverses per point, not n
+        om_pos, om_neg = (1 - x) % p, (1 - xinv) % p
+        if om_pos == 0 or om_neg == 0:
+            return None
+        inv_pos, inv_neg = pow(om_pos, -1, p), pow(om_neg, -1, p)
         cells: dict[int, int] = {}
         scale = 1
-        for c in range(n):
-            xs = x if self.signs[c] > 0 else xinv
-            one_minus = (1 - xs) % p
-            if one_minus == 0:
-                return None
-            delta = powers[self.dexp[c]] * pow(one_minus, -1, p) % p
-            scale = scale * powers[-self.dexp[c]] % p * one_minus % p
-            for index, s in self.diagonal[c]:
+        for c, (sc, dexp, diagonal) in enumerate(self._per_crossing):
+            if sc > 0:
+                one_minus, inv = om_pos, inv_pos
+            else:
+                one_minus, inv = om_neg, inv_neg
+            delta = powers[dexp] * inv % p
+            scale = scale * powers[-dexp] % p * one_minus % p
+            for index, s in diagonal:
                 cells[index] = cells.get(index, flat[index]) + s * delta
         for index, value in cells.items():
             m[index // n, index % n] = value % p
@@ -346,21 +362,20 @@ class _Plan:
         if self.sign < 0:
             det = (-det) % p
         q = m.inv()
-
-        def g(cell: tuple[int, int, int, int]) -> int:
-            t, u, below, e = cell
-            inner = below + (int(q[t - 1, u - 1]) if t and u else 0)
-            return powers[e] * inner % p
-
+        # g[a, b] = x^e (below + Minv[t - 1, u - 1]) for the cells the sum needs
+        g = [powers[e] * (below + (int(q[t - 1, u - 1]) if t and u else 0)) % p
+             for t, u, below, e in self._needed]
         half = (p + 1) // 2
         total = 0
-        for s, ji, j1j, jj1, ij, ii in self.terms:
-            gjj1 = g(jj1)
-            gii = g(ii)
-            r = g(ji) * (g(j1j) + gjj1 - g(ij)) - gii * (gjj1 - 1) - half
+        k = 0
+        for s, *_ in self.terms:
+            gji, gj1j, gjj1, gij, gii = g[k:k + 5]
+            k += 5
+            r = gji * (gj1j + gjj1 - gij) - gii * (gjj1 - 1) - half
             total += r if s > 0 else -r
-        for phik, kk in self.edges:
-            total -= phik * (g(kk) - half)
+        for phik, _ in self.edges:
+            total -= phik * (g[k] - half)
+            k += 1
         # rho_1(x) = x^(-phi - w) det^2 total
         shift = -self.shift
         factor = pow(x, shift, p) if shift >= 0 else pow(xinv, -shift, p)
@@ -618,8 +633,6 @@ def _point_sequence(p: int):
 
 def _certified(lk: LongKnot, plan: _Plan) -> tuple[list[int], list[int]]:
     """Coefficients of ``P = 2 T^(phi + w + 2 n_-) rho_1`` and ``T^(n_-) det A``, proven."""
-    import numpy as np
-
     from .elimination import primes_below_2_31
 
     n = len(lk.crossings)
@@ -636,11 +649,8 @@ def _certified(lk: LongKnot, plan: _Plan) -> tuple[list[int], list[int]]:
     while any(len(v) < npts for v in chosen.values()):
         todo = [p for p in primes if len(chosen[p]) < npts]
         width = npts + 4
-        xs = np.tile(np.arange(start, start + width, dtype=np.int64), len(todo))
-        qs = np.repeat(np.array(todo, dtype=np.int64), width)
-        det, rho, ok = plan.evaluate_batch(xs, qs)
-        for x, q, d, r, good in zip(xs.tolist(), qs.tolist(), det.tolist(), rho.tolist(),
-                                    ok.tolist(), strict=True):
+        need = {q: npts - len(chosen[q]) for q in todo}
+        for x, q, d, r, good in _lanes(plan, need, start, width):
             if good and len(chosen[q]) < npts:
                 scale = pow(x, e, q) if e >= 0 else pow(pow(x, -1, q), -e, q)
                 chosen[q].append((x, d * pow(x, negatives, q) % q, 2 * scale * r % q))
@@ -651,6 +661,33 @@ def _certified(lk: LongKnot, plan: _Plan) -> tuple[list[int], list[int]]:
         p_res.append(_interpolate(xs_list, [v for _, _, v in chosen[p]], p))
         d_res.append(_interpolate(xs_list[:n + 1], [d for _, d, _ in chosen[p]][:n + 1], p))
     return _crt(p_res, primes), _crt(d_res, primes)
+
+
+def _lanes(plan: _Plan, need: dict[int, int], start: int, width: int):
+    """``(x, q, det, rho, ok)`` at the points ``start .. start + width - 1`` modulo each prime.
+
+    One numpy batch, or in pure Python for small diagrams point by point
+    until ``need[q]`` good points are found (the same residues, without
+    loading numpy; the caller takes the first ``need[q]`` good points).
+    """
+    if plan.n <= SMALL_RHO:
+        for q, left in need.items():
+            for x in range(start, start + width):
+                if left <= 0:
+                    break
+                got = plan.evaluate(x, q)
+                if got is not None:
+                    left -= 1
+                    yield x, q, got[0], got[1], True
+        return
+    import numpy as np
+
+    primes = list(need)
+    xs = np.tile(np.arange(start, start + width, dtype=np.int64), len(primes))
+    qs = np.repeat(np.array(primes, dtype=np.int64), width)
+    det, rho, ok = plan.evaluate_batch(xs, qs)
+    yield from zip(xs.tolist(), qs.tolist(), det.tolist(), rho.tolist(), ok.tolist(),
+                   strict=True)
 
 
 _PRIMES_62: list[int] = []
@@ -767,7 +804,7 @@ def _newton_to_monomial(points: list[int], newton: list[int], p: int) -> list[in
 
 def perturbed_alexander(diagram: Diagram, outer_face: int | None = None,
                         cut_edge: int | None = None,
-                        certified: bool | None = None) -> PerturbedAlexander:
+                        certified: bool | None = None, split: bool = True) -> PerturbedAlexander:
     """The Alexander polynomial and the perturbed Alexander invariant rho_1 of a knot.
 
     Parameters
@@ -780,6 +817,12 @@ def perturbed_alexander(diagram: Diagram, outer_face: int | None = None,
         True: interpolate at the proven number of points modulo the proven
         number of primes.  False: stop early (see Notes).  Default: certified
         up to :data:`CERTIFIED_UP_TO` crossings.
+    split : bool
+        With the defaults above and more than :data:`CERTIFIED_UP_TO`
+        crossings, a diagram that displays a connected sum (a decomposing
+        circle, :func:`knotsift.decomposition.decomposing_edges`) is cut there
+        and the invariants of the summands combined (see Notes).  False
+        computes on the whole diagram.
 
     Returns
     -------
@@ -823,6 +866,12 @@ def perturbed_alexander(diagram: Diagram, outer_face: int | None = None,
     ``O(e n^3)`` for rho_1 of degree ``e``.  The identities
     Delta(1) = 1 and rho_1(1/T) = rho_1(T) are checked on certified results.
 
+    *Connected sums*: for ``K = K' # K''`` the Alexander polynomials multiply
+    and ``rho_1(K) = Delta''^2 rho_1(K') + Delta'^2 rho_1(K'')`` (the sum
+    inside rho_1 adds up over the two halves of a long knot), so a diagram
+    that displays a split costs its summands' computations, which are
+    smaller and more often certified.
+
     References
     ----------
     D. Bar-Natan and R. van der Veen, "A perturbed-Alexander invariant",
@@ -831,6 +880,11 @@ def perturbed_alexander(diagram: Diagram, outer_face: int | None = None,
     _check_knot(diagram)
     if diagram.number_of_crossings() == 0:
         return PerturbedAlexander(Laurent.constant(1), Laurent.constant(0))
+    if split and certified is None and outer_face is None and cut_edge is None \
+            and diagram.number_of_crossings() > CERTIFIED_UP_TO:
+        summed = _by_summands(diagram)
+        if summed is not None:
+            return summed
     lk = long_knot(diagram, outer_face, cut_edge)
     if certified is None:
         certified = len(lk.crossings) <= CERTIFIED_UP_TO
@@ -841,6 +895,32 @@ def perturbed_alexander(diagram: Diagram, outer_face: int | None = None,
 
             return PerturbedAlexander(alexander_polynomial(diagram), rho)
     return _from_long_knot(lk)
+
+
+def _by_summands(diagram: Diagram) -> PerturbedAlexander | None:
+    """Delta and rho_1 from the two sides of a decomposing circle, or None without one.
+
+    The summands are computed as the whole would have been: with early
+    termination (split again where they display a further circle).
+    """
+    from ..decomposition import decomposing_edges, split_along
+
+    cut = decomposing_edges(diagram)
+    if cut is None:
+        return None
+    a, b = (_summand(part) for part in split_along(diagram, *cut))
+    return PerturbedAlexander(a.alexander * b.alexander,
+                              b.alexander * b.alexander * a.rho_1
+                              + a.alexander * a.alexander * b.rho_1)
+
+
+def _summand(diagram: Diagram) -> PerturbedAlexander:
+    """One side of a decomposing circle, by early termination (see :func:`_by_summands`)."""
+    if diagram.number_of_crossings() > 1:
+        summed = _by_summands(diagram)
+        if summed is not None:
+            return summed
+    return perturbed_alexander(diagram, certified=False, split=False)
 
 
 def _from_long_knot(lk: LongKnot) -> PerturbedAlexander:

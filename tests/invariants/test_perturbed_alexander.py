@@ -10,7 +10,7 @@ from hypothesis import given, settings
 from hypothesis import strategies as st
 from knotsift import Diagram, InvariantError, Laurent
 from knotsift.invariants.alexander import alexander_polynomial
-from knotsift.invariants.fingerprint import fingerprint
+from knotsift.invariants.fingerprint import Fingerprint, fingerprint
 from knotsift.invariants.jones import jones_polynomial
 from knotsift.invariants.perturbed_alexander import (
     HASH_POINTS,
@@ -238,3 +238,32 @@ def test_mirror_hash_text_matches_the_mirror_diagram():
     d = braid_closure([1, 1, 1, 2, -1, 2])
     assert mirror_hash_text(hash_text(rho_1_hash(d))) == hash_text(rho_1_hash(d.mirror()))
     assert mirror_hash_text("") == ""
+
+
+@pytest.mark.parametrize("labels", [("8_19", "9_42*"), ("7_4", "5_2", "6_1*"),
+                                    ("10_132", "3_1", "8_20")])
+def test_displayed_connected_sum_is_computed_from_its_summands(labels):
+    """Above CERTIFIED_UP_TO crossings a diagram that displays a split is cut there; the
+    result equals the computation on the whole diagram (split=False), and the certified
+    one, and the table values multiplied by the connected-sum formula (the test above)."""
+    from knotsift.decomposition import decomposing_edges
+    from knotsift.invariants.perturbed_alexander import CERTIFIED_UP_TO, perturbed_alexander
+    from knotsift.table import open_table
+
+    table = open_table()
+    d = Diagram(table.form(labels[0]).pd())
+    for label in labels[1:]:
+        d = d.connected_sum(Diagram(table.form(label).pd()))
+    d = scramble(d, 6, random.Random(" ".join(labels)))
+    assert d.number_of_crossings() > CERTIFIED_UP_TO and decomposing_edges(d) is not None
+    summed = perturbed_alexander(d)
+    assert summed == perturbed_alexander(d, split=False)
+    if d.number_of_crossings() <= 26:
+        assert summed == perturbed_alexander(d, certified=True)
+    product = None
+    for label in labels:
+        f = table.form(label)
+        fp = Fingerprint(1, None, Laurent.parse(f.alexander), f.determinant, f.signature,
+                         Laurent.parse(f.rho_1))
+        product = fp if product is None else product * fp
+    assert (summed.alexander, summed.rho_1) == (product.alexander, product.rho_1)
