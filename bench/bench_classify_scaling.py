@@ -151,7 +151,7 @@ def run_classify(xyz: Path, out: Path, workers: int, old: str | None = None,
         raise RuntimeError(f"classify failed ({proc.returncode}): {stderr[-2000:]}")
     probe = json.loads(lines[-1])
     report = json.loads("\n".join(lines[:-1]))
-    kids = [v for k, v in sched.items() if k != proc.pid]
+    kids = [v for k, v in sched.items() if k != proc.pid and v is not None]
     return {"wall": wall, "frames": report["written"], "failed": report["failed"],
             "counts": report["counts"], "parent_cpu": probe["parent_cpu"],
             "children_cpu": probe["children_cpu"],
@@ -170,12 +170,21 @@ def _sample(pid: int, sched: dict) -> None:
         return
     now = time.monotonic()
     for k in pids:
+        if k in sched and sched[k] is None:
+            continue
+        try:
+            with open(f"/proc/{k}/cmdline", "rb") as fh:
+                if b"resource_tracker" in fh.read():   # a helper of spawn, not a worker
+                    sched[k] = None
+                    continue
+        except OSError:
+            continue
         try:
             with open(f"/proc/{k}/schedstat") as fh:
                 run, queued = (int(v) / 1e9 for v in fh.read().split()[:2])
         except (OSError, ValueError):
             continue
-        first = sched.get(k, (now,))[0]
+        first = (sched.get(k) or (now,))[0]
         sched[k] = (first, now, run, queued)
 
 

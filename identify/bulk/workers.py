@@ -167,10 +167,12 @@ def start_method(memory_mb: int | None = None) -> str:
     """``fork`` where it is safe (workers inherit the warmed-up parent), else ``spawn``.
 
     Forking needs Linux (it is unsafe on macOS and missing on Windows), a
-    parent with a single thread (a lock held by another thread at the fork
-    would stay locked in the child for ever), and a parent whose address space
-    is under half of ``memory_mb``, since a forked worker starts with the
-    parent's and its cap counts it.
+    parent with no Python thread but the main one (a lock held by another
+    thread at the fork would stay locked in the child for ever; native
+    threads of numerical libraries, which guard their locks across a fork,
+    are not counted), and a parent whose address space is under half of
+    ``memory_mb``, since a forked worker starts with the parent's and its cap
+    counts it.
 
     Examples
     --------
@@ -180,7 +182,7 @@ def start_method(memory_mb: int | None = None) -> str:
     if not sys.platform.startswith("linux"):
         return "spawn"
     try:
-        if len(os.listdir("/proc/self/task")) != 1:
+        if threading.active_count() != 1:
             return "spawn"
         if memory_mb is not None:
             with open("/proc/self/statm") as fh:
