@@ -23,7 +23,7 @@ from ..diagram import Diagram
 from ..errors import CurveError
 from .contact import SegmentSet, segment_set
 from .predicates import det3, det3_exact, exact_vector
-from .segments import cross, near_pairs
+from .segments import compiled_geometry, cross, near_pairs
 
 __all__ = ["PROJECTION_TOL", "MAX_REDRAWS", "Projection", "random_direction", "project",
            "curve_diagram", "crossings_along"]
@@ -110,17 +110,20 @@ def _crossings(segs: SegmentSet, u: np.ndarray, tol: float):
     pad = max(tol, 1e-9) * scale
     lo = np.minimum(P, Q) - pad
     hi = np.maximum(P, Q) + pad
-    if m <= 600:
-        i, j = np.triu_indices(m, 1)
-        ok = np.all((lo[i] <= hi[j]) & (lo[j] <= hi[i]), axis=1)
-        i, j = i[ok], j[ok]
+    kernels = compiled_geometry()
+    if kernels is not None:
+        i, j, adj = kernels.projected_crossing_pairs(
+            lo, hi, segs.chain, segs.first, np.asarray(segs.sizes, dtype=np.int64),
+            np.asarray(segs.closed, dtype=np.bool_))
     else:
-        i, j = near_pairs(lo, hi)
+        i, j = _overlapping_pairs(lo, hi)
+        adj = None
     r = segs.q - segs.p
     uu = np.broadcast_to(u, r.shape)
     if np.any(np.all(cross(r, uu) == 0.0, axis=1)):
         return None  # a segment seen end-on
-    adj = segs.adjacent(i, j)
+    if adj is None:
+        adj = segs.adjacent(i, j)
     if adj.any():
         # neighbours share a vertex; they overlap in projection only when collinear there
         ai, aj = i[adj], j[adj]
@@ -171,6 +174,16 @@ def _crossings(segs: SegmentSet, u: np.ndarray, tol: float):
     found = np.stack((i, t, j, s, i_over, sign), axis=1)
     _settle_ties(segs, found, u)
     return found
+
+
+def _overlapping_pairs(lo: np.ndarray, hi: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """Pairs ``i < j`` of overlapping boxes in (i, j) order (numpy)."""
+    m = lo.shape[0]
+    if m <= 600:
+        i, j = np.triu_indices(m, 1)
+        ok = np.all((lo[i] <= hi[j]) & (lo[j] <= hi[i]), axis=1)
+        return i[ok], j[ok]
+    return near_pairs(lo, hi)
 
 
 def _exact_pair(segs: SegmentSet, i: int, j: int, u: np.ndarray):

@@ -8,9 +8,12 @@ so callers that keep a vertex "when in doubt" stay correct.
 
 from __future__ import annotations
 
+import os
+
 import numpy as np
 
 __all__ = [
+    "compiled_geometry",
     "near_pairs",
     "segment_distances",
     "point_segment_distances",
@@ -20,6 +23,28 @@ __all__ = [
 
 #: Boxes spanning more grid cells than this are compared with every box directly.
 _MAX_CELLS = 64
+#: Setting this environment variable to 1 turns the compiled kernels off (numpy only).
+NO_COMPILED_VARIABLE = "KNOTSIFT_NO_COMPILED"
+_compiled_module: list = []  # [module or None] once numba has been tried
+
+
+def compiled_geometry():
+    """The compiled kernels (:mod:`.compiled_geometry`), or None for the numpy path.
+
+    None when numba cannot be imported or ``KNOTSIFT_NO_COMPILED=1`` is set;
+    the numpy functions compute the same results, only slower on small
+    inputs.  numba is imported at the first call, never at package import,
+    so paths without 3D curves do not pay for it.
+    """
+    if os.environ.get(NO_COMPILED_VARIABLE, "") not in ("", "0"):
+        return None
+    if not _compiled_module:
+        try:
+            from . import compiled_geometry as module
+        except ImportError:
+            module = None
+        _compiled_module.append(module)
+    return _compiled_module[0]
 
 
 def cross(u: np.ndarray, v: np.ndarray) -> np.ndarray:
@@ -29,9 +54,18 @@ def cross(u: np.ndarray, v: np.ndarray) -> np.ndarray:
     return np.stack((u1 * v2 - u2 * v1, u2 * v0 - u0 * v2, u0 * v1 - u1 * v0), axis=1)
 
 
+def _dot(u: np.ndarray, v: np.ndarray) -> np.ndarray:
+    """Row-wise dot product of (n, 3) arrays, summed left to right.
+
+    Written out rather than ``einsum`` (which pairs the terms its own way), so
+    that the compiled kernels, summing in the same order, agree to the last bit.
+    """
+    return u[:, 0] * v[:, 0] + u[:, 1] * v[:, 1] + u[:, 2] * v[:, 2]
+
+
 def norm(u: np.ndarray) -> np.ndarray:
     """Row-wise Euclidean norm of an (n, 3) array."""
-    return np.sqrt(np.einsum("ij,ij->i", u, u))
+    return np.sqrt(_dot(u, u))
 
 
 def _cells(lo: np.ndarray, hi: np.ndarray, cell: float):
@@ -154,8 +188,8 @@ def near_pairs(lo_a: np.ndarray, hi_a: np.ndarray, lo_b: np.ndarray | None = Non
 def point_segment_distances(x: np.ndarray, p: np.ndarray, q: np.ndarray) -> np.ndarray:
     """Distance from each point ``x[k]`` to the segment ``[p[k], q[k]]``."""
     d = q - p
-    dd = np.einsum("ij,ij->i", d, d)
-    t = np.einsum("ij,ij->i", x - p, d) / np.where(dd > 0, dd, 1.0)
+    dd = _dot(d, d)
+    t = _dot(x - p, d) / np.where(dd > 0, dd, 1.0)
     t = np.clip(t, 0.0, 1.0)
     return norm(x - (p + t[:, None] * d))
 
@@ -175,11 +209,11 @@ def segment_distances(p1: np.ndarray, q1: np.ndarray, p2: np.ndarray, q2: np.nda
     d1 = q1 - p1
     d2 = q2 - p2
     r = p1 - p2
-    a = np.einsum("ij,ij->i", d1, d1)
-    e = np.einsum("ij,ij->i", d2, d2)
-    b = np.einsum("ij,ij->i", d1, d2)
-    c = np.einsum("ij,ij->i", d1, r)
-    f = np.einsum("ij,ij->i", d2, r)
+    a = _dot(d1, d1)
+    e = _dot(d2, d2)
+    b = _dot(d1, d2)
+    c = _dot(d1, r)
+    f = _dot(d2, r)
     den = a * e - b * b
     good = den > 1e-12 * np.maximum(a * e, 1e-300)
     safe = np.where(good, den, 1.0)
@@ -195,10 +229,6 @@ def segment_distances(p1: np.ndarray, q1: np.ndarray, p2: np.ndarray, q2: np.nda
     best = np.minimum(best, point_segment_distances(p2, p1, q1))
     best = np.minimum(best, point_segment_distances(q2, p1, q1))
     return best
-
-
-def _dot(u: np.ndarray, v: np.ndarray) -> np.ndarray:
-    return np.einsum("ij,ij->i", u, v)
 
 
 def triangle_segment_near(a: np.ndarray, b: np.ndarray, c: np.ndarray, p: np.ndarray,
