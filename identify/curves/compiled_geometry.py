@@ -672,3 +672,87 @@ def projected_crossing_pairs(lo, hi, chain, first, sizes, closed):
                 dd = abs(first[i] - first[j])
                 adj[e] = dd == 1 or dd == 0 or (closed[chain[i]] and dd == sizes[chain[i]] - 1)
     return out_i, other, adj
+
+
+@_jit
+def _det3(a, b, c, error_factor):
+    """As :func:`.predicates.det3` for one row: the determinant and its rounding bound."""
+    m0 = a[1] * b[2] - a[2] * b[1]
+    m1 = a[2] * b[0] - a[0] * b[2]
+    m2 = a[0] * b[1] - a[1] * b[0]
+    det = m0 * c[0] + m1 * c[1] + m2 * c[2]
+    aa = (abs(a[0]), abs(a[1]), abs(a[2]))
+    ab = (abs(b[0]), abs(b[1]), abs(b[2]))
+    ac = (abs(c[0]), abs(c[1]), abs(c[2]))
+    perm = ((aa[1] * ab[2] + aa[2] * ab[1]) * ac[0]
+            + (aa[2] * ab[0] + aa[0] * ab[2]) * ac[1]
+            + (aa[0] * ab[1] + aa[1] * ab[0]) * ac[2])
+    return det, error_factor * perm
+
+
+@_jit
+def projected_crossings_float(p, q, u, lo, hi, chain, first, sizes, closed, error_factor):
+    """The floating-point stage of :func:`.projection._crossings`.
+
+    Returns ``(end_on, ai, aj, i, j, o1, o2, o3, o4, sure, hit, H, h_doubt)``:
+    whether a segment is seen end-on; the adjacent pairs whose collinearity
+    the float filter cannot exclude; the non-adjacent candidate pairs with
+    their four orientation determinants, whether all four signs are certain,
+    whether they cross, the height determinant of the crossing pairs and
+    whether its sign is in doubt.  Pairs in (i, j) order.
+    """
+    m = p.shape[0]
+    uu = (u[0], u[1], u[2])
+    for s in range(m):
+        c = _cross(_sub(_row(q, s), _row(p, s)), uu)
+        if c[0] == 0.0 and c[1] == 0.0 and c[2] == 0.0:
+            e = np.zeros(0, dtype=np.int64)
+            f = np.zeros(0)
+            b = np.zeros(0, dtype=np.bool_)
+            return True, e, e, e, e, f, f, f, f, b, b, f, b
+    pi, pj, adj = projected_crossing_pairs(lo, hi, chain, first, sizes, closed)
+    n_adj = 0
+    for e in range(adj.size):
+        if adj[e]:
+            n_adj += 1
+    ai = np.empty(n_adj, dtype=np.int64)
+    aj = np.empty(n_adj, dtype=np.int64)
+    n = adj.size - n_adj
+    i = np.empty(n, dtype=np.int64)
+    j = np.empty(n, dtype=np.int64)
+    o1 = np.empty(n)
+    o2 = np.empty(n)
+    o3 = np.empty(n)
+    o4 = np.empty(n)
+    sure = np.zeros(n, dtype=np.bool_)
+    hit = np.zeros(n, dtype=np.bool_)
+    H = np.zeros(n)
+    h_doubt = np.zeros(n, dtype=np.bool_)
+    na = 0
+    k = 0
+    for e in range(adj.size):
+        a, b = pi[e], pj[e]
+        ra = _sub(_row(q, a), _row(p, a))
+        rb = _sub(_row(q, b), _row(p, b))
+        if adj[e]:
+            d, bound = _det3(ra, rb, uu, error_factor)
+            if abs(d) <= bound:
+                ai[na] = a
+                aj[na] = b
+                na += 1
+            continue
+        i[k], j[k] = a, b
+        pa, pb = _row(p, a), _row(p, b)
+        d1, b1 = _det3(ra, _sub(pb, pa), uu, error_factor)
+        d2, b2 = _det3(ra, _sub(_row(q, b), pa), uu, error_factor)
+        d3, b3 = _det3(rb, _sub(pa, pb), uu, error_factor)
+        d4, b4 = _det3(rb, _sub(_row(q, a), pb), uu, error_factor)
+        o1[k], o2[k], o3[k], o4[k] = d1, d2, d3, d4
+        sure[k] = abs(d1) > b1 and abs(d2) > b2 and abs(d3) > b3 and abs(d4) > b4
+        if sure[k] and (d1 > 0) != (d2 > 0) and (d3 > 0) != (d4 > 0):
+            hit[k] = True
+            h, bh = _det3(_sub(pa, pb), ra, rb, error_factor)
+            H[k] = h
+            h_doubt[k] = abs(h) <= bh
+        k += 1
+    return False, ai[:na], aj[:na], i, j, o1, o2, o3, o4, sure, hit, H, h_doubt

@@ -18,7 +18,7 @@ from __future__ import annotations
 import numpy as np
 
 from ..errors import CurveError
-from .segments import compiled_geometry, near_pairs, segment_distances
+from .segments import compiled_geometry, near_pairs, numpy_kernel_time, segment_distances
 
 __all__ = ["CONTACT_TOL", "RESOLUTION", "SegmentSet", "segment_set", "closest_contacts",
            "check_no_contact", "contact_resolution"]
@@ -96,7 +96,8 @@ def closest_contacts(segs: SegmentSet, tol: float
             np.asarray(segs.closed, dtype=np.bool_), float(tol))
         order = np.argsort(d)
         return i[order], j[order], d[order]
-    return _closest_contacts_numpy(segs, tol)
+    with numpy_kernel_time():
+        return _closest_contacts_numpy(segs, tol)
 
 
 def _closest_contacts_numpy(segs: SegmentSet, tol: float

@@ -16,7 +16,8 @@ from dataclasses import dataclass
 import numpy as np
 
 from .contact import segment_set
-from .segments import apex_segment_near, compiled_geometry, near_pairs, norm, triangle_segment_near
+from .segments import (apex_segment_near, compiled_geometry, near_pairs, norm,
+                       numpy_kernel_time, triangle_segment_near)
 
 __all__ = ["KMT_TOL", "Reduction", "kmt_reduce", "triangles_hit"]
 
@@ -132,8 +133,8 @@ def kmt_reduce(chains: list[tuple[np.ndarray, bool]], tol: float = KMT_TOL,
 
     With numba available the same passes run compiled
     (:func:`knotsift.curves.compiled_geometry.kmt_reduce_chains`), keeping
-    exactly the same vertices; ``KNOTSIFT_NO_COMPILED=1`` selects the numpy
-    passes.
+    exactly the same vertices; see
+    :func:`knotsift.curves.segments.compiled_geometry` for when.
 
     References
     ----------
@@ -145,7 +146,8 @@ def kmt_reduce(chains: list[tuple[np.ndarray, bool]], tol: float = KMT_TOL,
     kernels = compiled_geometry()
     if kernels is not None:
         return _reduce_compiled(kernels, chains, tol, record, max_passes)
-    return _reduce_numpy(chains, tol, record, max_passes)
+    with numpy_kernel_time():
+        return _reduce_numpy(chains, tol, record, max_passes)
 
 
 def _reduce_compiled(kernels, chains, tol, record, max_passes) -> Reduction:

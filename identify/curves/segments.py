@@ -9,11 +9,14 @@ so callers that keep a vertex "when in doubt" stay correct.
 from __future__ import annotations
 
 import os
+import time
+from contextlib import contextmanager
 
 import numpy as np
 
 __all__ = [
     "compiled_geometry",
+    "numpy_kernel_time",
     "near_pairs",
     "segment_distances",
     "point_segment_distances",
@@ -23,20 +26,36 @@ __all__ = [
 
 #: Boxes spanning more grid cells than this are compared with every box directly.
 _MAX_CELLS = 64
-#: Setting this environment variable to 1 turns the compiled kernels off (numpy only).
+#: ``KNOTSIFT_NO_COMPILED=1`` turns the compiled kernels off (numpy only).
 NO_COMPILED_VARIABLE = "KNOTSIFT_NO_COMPILED"
+#: ``KNOTSIFT_COMPILED=1`` uses them from the first call (benchmarks, long runs).
+COMPILED_VARIABLE = "KNOTSIFT_COMPILED"
+#: CPU seconds of numpy kernel time after which a process switches to the
+#: compiled kernels by itself: about what loading them costs (import numba and
+#: the cached machine code, 0.3 + 0.7 s), so a short run never pays more than
+#: twice the best choice, and a one-frame command never loads numba at all.
+SWITCH_AFTER_SECONDS = 1.0
 _compiled_module: list = []  # [module or None] once numba has been tried
+_numpy_seconds = [0.0]
+
+
+def _flag(name: str) -> bool:
+    return os.environ.get(name, "") not in ("", "0")
 
 
 def compiled_geometry():
     """The compiled kernels (:mod:`.compiled_geometry`), or None for the numpy path.
 
-    None when numba cannot be imported or ``KNOTSIFT_NO_COMPILED=1`` is set;
-    the numpy functions compute the same results, only slower on small
-    inputs.  numba is imported at the first call, never at package import,
-    so paths without 3D curves do not pay for it.
+    Both compute identical results.  None when numba cannot be imported, when
+    ``KNOTSIFT_NO_COMPILED=1`` is set, or while this process has spent less
+    than :data:`SWITCH_AFTER_SECONDS` in the numpy kernels (unless
+    ``KNOTSIFT_COMPILED=1``): loading numba costs about a second, which a
+    single small frame would never win back.  numba is imported at the switch,
+    never at package import, so paths without 3D curves do not pay for it.
     """
-    if os.environ.get(NO_COMPILED_VARIABLE, "") not in ("", "0"):
+    if _flag(NO_COMPILED_VARIABLE):
+        return None
+    if not _flag(COMPILED_VARIABLE) and _numpy_seconds[0] < SWITCH_AFTER_SECONDS:
         return None
     if not _compiled_module:
         try:
@@ -45,6 +64,16 @@ def compiled_geometry():
             module = None
         _compiled_module.append(module)
     return _compiled_module[0]
+
+
+@contextmanager
+def numpy_kernel_time():
+    """Count the CPU time of a numpy kernel towards the switch to the compiled ones."""
+    t0 = time.process_time()
+    try:
+        yield
+    finally:
+        _numpy_seconds[0] += time.process_time() - t0
 
 
 def cross(u: np.ndarray, v: np.ndarray) -> np.ndarray:
