@@ -23,7 +23,7 @@ import math
 import numba
 import numpy as np
 
-__all__ = ["overlapping_pairs", "kmt_reduce_chains", "contact_pairs", "projected_crossing_pairs"]
+__all__ = ["warm_up", "overlapping_pairs", "kmt_reduce_chains", "contact_pairs", "projected_crossing_pairs"]
 
 _jit = numba.njit(cache=True, nogil=True)
 
@@ -756,3 +756,24 @@ def projected_crossings_float(p, q, u, lo, hi, chain, first, sizes, closed, erro
             h_doubt[k] = abs(h) <= bh
         k += 1
     return False, ai[:na], aj[:na], i, j, o1, o2, o3, o4, sure, hit, H, h_doubt
+
+
+def warm_up() -> None:
+    """Call every kernel once on a tiny input, with the argument types of real calls.
+
+    This loads the cached machine code (or compiles it, the first time), so
+    that the first real frame does not wait.
+    """
+    s = np.linspace(0.0, 2.0 * np.pi, 12, endpoint=False)
+    x = np.ascontiguousarray(np.stack((np.cos(s), np.sin(s), 0.3 * np.sin(3 * s)), axis=1) * 3)
+    one = np.array([12], dtype=np.int64)
+    ring = np.array([True])
+    kmt_reduce_chains(x, np.array([0], dtype=np.int64), one, ring, 1e-6, True, -1)
+    q = np.ascontiguousarray(np.roll(x, -1, axis=0))
+    chain = np.zeros(12, dtype=np.int64)
+    first = np.arange(12, dtype=np.int64)
+    contact_pairs(x, q, chain, first, one, ring, 1e-4)
+    lo = np.ascontiguousarray(np.minimum(x[:, :2], q[:, :2]))
+    hi = np.ascontiguousarray(np.maximum(x[:, :2], q[:, :2]))
+    projected_crossings_float(x, q, np.array([0.0, 0.0, 1.0]), lo, hi, chain, first, one, ring,
+                              1e-15)

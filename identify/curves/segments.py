@@ -9,6 +9,7 @@ so callers that keep a vertex "when in doubt" stay correct.
 from __future__ import annotations
 
 import os
+import threading
 import time
 from contextlib import contextmanager
 
@@ -30,40 +31,63 @@ _MAX_CELLS = 64
 NO_COMPILED_VARIABLE = "KNOTSIFT_NO_COMPILED"
 #: ``KNOTSIFT_COMPILED=1`` uses them from the first call (benchmarks, long runs).
 COMPILED_VARIABLE = "KNOTSIFT_COMPILED"
-#: CPU seconds of numpy kernel time after which a process switches to the
+#: CPU seconds of numpy kernel time after which a process starts loading the
 #: compiled kernels by itself: about what loading them costs (import numba and
-#: the cached machine code, 0.3 + 0.7 s), so a short run never pays more than
-#: twice the best choice, and a one-frame command never loads numba at all.
+#: the cached machine code, about 0.3 + 0.7 s), so a one-frame command never
+#: loads numba at all.
 SWITCH_AFTER_SECONDS = 1.0
-_compiled_module: list = []  # [module or None] once numba has been tried
 _numpy_seconds = [0.0]
+_state: dict = {"pid": None, "done": False, "module": None, "thread": None}
 
 
 def _flag(name: str) -> bool:
     return os.environ.get(name, "") not in ("", "0")
 
 
+def _load() -> None:
+    """Import (and, the first time on a machine, compile) the kernels; None on any failure."""
+    try:
+        from . import compiled_geometry as module
+
+        module.warm_up()
+    except Exception:  # numba missing or unable to compile here: the numpy path stays
+        module = None
+    _state["module"] = module
+    _state["done"] = True
+
+
 def compiled_geometry():
     """The compiled kernels (:mod:`.compiled_geometry`), or None for the numpy path.
 
-    Both compute identical results.  None when numba cannot be imported, when
-    ``KNOTSIFT_NO_COMPILED=1`` is set, or while this process has spent less
-    than :data:`SWITCH_AFTER_SECONDS` in the numpy kernels (unless
-    ``KNOTSIFT_COMPILED=1``): loading numba costs about a second, which a
-    single small frame would never win back.  numba is imported at the switch,
-    never at package import, so paths without 3D curves do not pay for it.
+    Both paths compute identical results.  None when ``KNOTSIFT_NO_COMPILED=1``
+    is set or numba cannot be used.  Otherwise the kernels are loaded in a
+    background thread once this process has spent
+    :data:`SWITCH_AFTER_SECONDS` in the numpy kernels, and used as soon as
+    they are ready: a one-frame command never pays the second that loading
+    costs, and no item's wall-time budget waits for it (the first compilation
+    on a machine takes about a minute; later processes load the cache).
+    ``KNOTSIFT_COMPILED=1`` loads them at the first call instead and waits.
+    numba is never imported at package import, so paths without 3D curves do
+    not pay for it.
     """
     if _flag(NO_COMPILED_VARIABLE):
         return None
-    if not _flag(COMPILED_VARIABLE) and _numpy_seconds[0] < SWITCH_AFTER_SECONDS:
-        return None
-    if not _compiled_module:
-        try:
-            from . import compiled_geometry as module
-        except ImportError:
-            module = None
-        _compiled_module.append(module)
-    return _compiled_module[0]
+    if _state["pid"] != os.getpid():  # a new process (or a forked child): start afresh
+        _state.update(pid=os.getpid(), done=False, module=None, thread=None)
+    if _state["done"]:
+        return _state["module"]
+    if _flag(COMPILED_VARIABLE):
+        thread = _state["thread"]
+        if thread is not None:
+            thread.join()
+        else:
+            _load()
+        return _state["module"]
+    if _numpy_seconds[0] >= SWITCH_AFTER_SECONDS and _state["thread"] is None:
+        thread = threading.Thread(target=_load, name="knotsift-compiled-kernels", daemon=True)
+        _state["thread"] = thread
+        thread.start()
+    return None
 
 
 @contextmanager

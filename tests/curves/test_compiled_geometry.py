@@ -119,9 +119,8 @@ def test_projection_compiled_rejects_end_on_segments(monkeypatch):
 @pytest.mark.parametrize("dim", [2, 3])
 def test_overlapping_pairs_equal_near_pairs(dim):
     """The compiled box search lists exactly near_pairs' pairs, long boxes included."""
-    kernels = compiled_geometry() or segments._compiled_module[0]
-    if kernels is None:
-        from knotsift.curves import compiled_geometry as kernels
+    from knotsift.curves import compiled_geometry as kernels
+
     rng = np.random.default_rng(dim)
     for n_a, n_b in ((150, 400), (900, 700)):
         lo_a = rng.uniform(0, 30, (n_a, dim))
@@ -139,16 +138,22 @@ def test_overlapping_pairs_equal_near_pairs(dim):
 
 
 def test_compiled_geometry_switches(monkeypatch):
-    """The numpy path until the numpy kernels have cost about a load, then the compiled one."""
+    """numpy until the numpy kernels have cost about a load, then compiled (loaded aside)."""
     monkeypatch.delenv("KNOTSIFT_COMPILED", raising=False)
     monkeypatch.setenv("KNOTSIFT_NO_COMPILED", "1")
+    monkeypatch.setattr(segments, "_state", {"pid": None})
     monkeypatch.setattr(segments, "_numpy_seconds", [10.0])
     assert compiled_geometry() is None
     monkeypatch.delenv("KNOTSIFT_NO_COMPILED")
-    assert compiled_geometry() is not None
     monkeypatch.setattr(segments, "_numpy_seconds", [0.0])
     assert compiled_geometry() is None
-    monkeypatch.setattr(segments, "SWITCH_AFTER_SECONDS", 0.0)
+    assert segments._state["thread"] is None  # nothing loaded below the threshold
+    monkeypatch.setattr(segments, "_numpy_seconds", [10.0])
+    first = compiled_geometry()  # starts loading in the background
+    thread = segments._state["thread"]
+    assert thread is not None
+    thread.join(timeout=600)
+    assert first is None or first is compiled_geometry()
     assert compiled_geometry() is not None
 
 
