@@ -31,6 +31,11 @@ _jit = numba.njit(cache=True, nogil=True)
 _MAX_CELLS = 64
 #: Up to this many box pairs, every pair is compared directly.
 _BRUTE_PAIRS = 40_000
+# Typed (not literal) constants for arguments: a literal 0 or False at a call
+# site makes numba compile an extra specialisation of the callee.
+_ZERO = np.int64(0)
+_NO = np.bool_(False)
+_YES = np.bool_(True)
 
 
 # --- 3-vectors as tuples (no allocation in the inner loops) -------------------------------
@@ -234,10 +239,28 @@ def _overlap(lo_a, hi_a, i, lo_b, hi_b, j):
 def _push(buf, n, value):
     if n == buf.size:
         bigger = np.empty(2 * buf.size + 16, dtype=buf.dtype)
-        bigger[:n] = buf[:n]
+        for k in range(n):
+            bigger[k] = buf[k]
         buf = bigger
     buf[n] = value
     return buf
+
+
+@_jit
+def _shell_sort(a, lo, hi):
+    """Sort ``a[lo:hi]`` in place (short runs; cheaper to compile than numpy's sort)."""
+    gap = 1
+    while gap < (hi - lo) // 3:
+        gap = 3 * gap + 1
+    while gap >= 1:
+        for k in range(lo + gap, hi):
+            v = a[k]
+            m = k
+            while m - gap >= lo and a[m - gap] > v:
+                a[m] = a[m - gap]
+                m -= gap
+            a[m] = v
+        gap //= 3
 
 
 @_jit
@@ -253,7 +276,7 @@ def overlapping_pairs(lo_a, hi_a, lo_b, hi_b, self_pairs):
     na, nb, d = lo_a.shape[0], lo_b.shape[0], lo_a.shape[1]
     start = np.zeros(na + 1, dtype=np.int64)
     out = np.empty(16, dtype=np.int64)
-    n = 0
+    n = _ZERO
     if na == 0 or nb == 0:
         return start, out[:0]
     finite = True
@@ -270,21 +293,29 @@ def overlapping_pairs(lo_a, hi_a, lo_b, hi_b, self_pairs):
             start[i + 1] = n
         return start, out[:n]
     # a uniform grid over set b: cell about twice the median box extent, at most ~8 cells a box
-    ext = np.empty(nb)
+    total_ext = 0.0
     for j in range(nb):
         e = 0.0
         for k in range(d):
             e = max(e, hi_b[j, k] - lo_b[j, k])
-        ext[j] = e
-    cell = 2.0 * np.median(ext)
+        total_ext += e
+    cell = 2.0 * total_ext / nb  # the cell size only sets the speed, never the pairs
     origin = np.zeros(3)
     span = np.zeros(3)
+    widest = 0.0
     for k in range(d):
-        origin[k] = lo_b[:, k].min()
-        span[k] = hi_b[:, k].max() - origin[k]
+        low, high = lo_b[0, k], hi_b[0, k]
+        for j in range(1, nb):
+            low = min(low, lo_b[j, k])
+            high = max(high, hi_b[j, k])
+        origin[k] = low
+        span[k] = high - low
+        widest = max(widest, span[k])
     if not (math.isfinite(cell) and cell > 0):
-        cell = max(span.max(), 1.0)
-    dims = np.ones(3, dtype=np.int64)
+        cell = max(widest, 1.0)
+    dims = np.zeros(3, dtype=np.int64)
+    for k in range(3):
+        dims[k] = 1
     while True:
         total_f = 1.0
         for k in range(d):
@@ -299,7 +330,7 @@ def overlapping_pairs(lo_a, hi_a, lo_b, hi_b, self_pairs):
     lo_cell = np.zeros((nb, 3), dtype=np.int64)
     hi_cell = np.zeros((nb, 3), dtype=np.int64)
     big = np.empty(16, dtype=np.int64)
-    n_big = 0
+    n_big = _ZERO
     count = np.zeros(total + 1, dtype=np.int64)
     registered = np.zeros(nb, dtype=np.bool_)
     for j in range(nb):
@@ -319,7 +350,9 @@ def overlapping_pairs(lo_a, hi_a, lo_b, hi_b, self_pairs):
                     count[(x * dims[1] + y) * dims[2] + z + 1] += 1
     for c in range(total):
         count[c + 1] += count[c]
-    fill = count[:-1].copy()
+    fill = np.empty(total, dtype=np.int64)
+    for c in range(total):
+        fill[c] = count[c]
     items = np.empty(count[total], dtype=np.int64)
     for j in range(nb):
         if not registered[j]:
@@ -330,7 +363,9 @@ def overlapping_pairs(lo_a, hi_a, lo_b, hi_b, self_pairs):
                     c = (x * dims[1] + y) * dims[2] + z
                     items[fill[c]] = j
                     fill[c] += 1
-    stamp = np.full(nb, -1, dtype=np.int64)
+    stamp = np.empty(nb, dtype=np.int64)
+    for j in range(nb):
+        stamp[j] = -1
     qlo = np.zeros(3, dtype=np.int64)
     qhi = np.zeros(3, dtype=np.int64)
     for i in range(na):
@@ -364,7 +399,7 @@ def overlapping_pairs(lo_a, hi_a, lo_b, hi_b, self_pairs):
             if _overlap(lo_a, hi_a, i, lo_b, hi_b, j):
                 out = _push(out, n, j)
                 n += 1
-        out[first:n].sort()
+        _shell_sort(out, first, n)
         start[i + 1] = n
     return start, out[:n]
 
@@ -407,11 +442,12 @@ def _kmt_phase(X, starts, cnt, cur, closed, phase, tol, record, tris, tri_ids, n
             V[vs[c] + k, 2] = X[g, 2]
     kk = np.empty(vs[nch], dtype=np.int64)
     cc = np.empty(vs[nch], dtype=np.int64)
-    m = 0
+    m = _ZERO
     for c in range(nch):
         m0 = m
         m = _candidates(cnt[c], closed[c], phase, kk, m)
-        cc[m0:m] = c
+        for t in range(m0, m):
+            cc[t] = c
     if m == 0:
         return 0, n_rec
     # segments, chain by chain (as contact.segment_set)
@@ -453,7 +489,7 @@ def _kmt_phase(X, starts, cnt, cur, closed, phase, tol, record, tris, tri_ids, n
             hi = _fmax(_fmax(V[ia[t], j], V[ib[t], j]), V[ic[t], j])
             tlo[t, j] = lo - tol
             thi[t, j] = hi + tol
-    start, seg = overlapping_pairs(tlo, thi, slo, shi, False)
+    start, seg = overlapping_pairs(tlo, thi, slo, shi, _NO)
     blocked = np.zeros(m, dtype=np.bool_)
     for t in range(m):
         A, B, C = _row(V, ia[t]), _row(V, ib[t]), _row(V, ic[t])
@@ -482,8 +518,16 @@ def _kmt_phase(X, starts, cnt, cur, closed, phase, tol, record, tris, tri_ids, n
             if near:
                 blocked[t] = True
                 break
-    clean = np.flatnonzero(~blocked)
-    nc = clean.size
+    nc = 0
+    for t in range(m):
+        if not blocked[t]:
+            nc += 1
+    clean = np.empty(nc, dtype=np.int64)
+    nc = 0
+    for t in range(m):
+        if not blocked[t]:
+            clean[nc] = t
+            nc += 1
     if nc == 0:
         return 0, n_rec
     # simultaneous deletions: the new segment [a, c] of one must keep clear of the others
@@ -498,10 +542,10 @@ def _kmt_phase(X, starts, cnt, cur, closed, phase, tol, record, tris, tri_ids, n
             qhi[x, j] = thi[t, j]
             elo[x, j] = _fmin(V[ia[t], j], V[ic[t], j])
             ehi[x, j] = _fmax(V[ia[t], j], V[ic[t], j])
-    start, other = overlapping_pairs(qlo, qhi, elo, ehi, False)
+    start, other = overlapping_pairs(qlo, qhi, elo, ehi, _NO)
     lo_end = np.empty(16, dtype=np.int64)
     hi_end = np.empty(16, dtype=np.int64)
-    n_conf = 0
+    n_conf = _ZERO
     for x in range(nc):
         a = clean[x]
         A, B, C = _row(V, ia[a]), _row(V, ib[a]), _row(V, ic[a])
@@ -530,13 +574,26 @@ def _kmt_phase(X, starts, cnt, cur, closed, phase, tol, record, tris, tri_ids, n
                 lo_end = _push(lo_end, n_conf, min(x, y))
                 hi_end = _push(hi_end, n_conf, max(x, y))
                 n_conf += 1
-    keep = np.ones(nc, dtype=np.bool_)
+    keep = np.zeros(nc, dtype=np.bool_)
+    for x in range(nc):
+        keep[x] = True
     if n_conf:
         # greedy in index order: a kept candidate removes its later partners
-        order = np.argsort(lo_end[:n_conf], kind="mergesort")
-        for e in order:
-            if keep[lo_end[e]]:
-                keep[hi_end[e]] = False
+        first_of = np.zeros(nc + 1, dtype=np.int64)
+        for e in range(n_conf):
+            first_of[lo_end[e] + 1] += 1
+        for x in range(nc):
+            first_of[x + 1] += first_of[x]
+        partner = np.empty(n_conf, dtype=np.int64)
+        for e in range(n_conf):
+            partner[first_of[lo_end[e]]] = hi_end[e]
+            first_of[lo_end[e]] += 1
+        e = 0
+        for x in range(nc):  # first_of[x] is now the end of x's partners
+            if keep[x]:
+                for f in range(e, first_of[x]):
+                    keep[partner[f]] = False
+            e = first_of[x]
     deleted = 0
     gone = np.zeros(vs[nch], dtype=np.bool_)
     for x in range(nc):
@@ -591,13 +648,15 @@ def kmt_reduce_chains(X, starts, sizes, closed, tol, record, max_passes):
     for c in range(sizes.size):
         for k in range(sizes[c]):
             cur[starts[c] + k] = k
-    cnt = sizes.copy()
+    cnt = np.empty(sizes.size, dtype=np.int64)
+    for c in range(sizes.size):
+        cnt[c] = sizes[c]
     n_tri = X.shape[0] if record else 0
     tris = np.empty((n_tri, 3, 3))
     tri_ids = np.empty((n_tri, 4), dtype=np.int64)
-    n_rec = 0
+    n_rec = _ZERO
     idle = 0
-    phase = 0
+    phase = _ZERO
     passes = 0
     rounds = 0
     while idle < 2:
@@ -630,11 +689,11 @@ def contact_pairs(p, q, chain, first, sizes, closed, tol):
         for k in range(3):
             lo[s, k] = _fmin(p[s, k], q[s, k]) - tol / 2
             hi[s, k] = _fmax(p[s, k], q[s, k]) + tol / 2
-    start, other = overlapping_pairs(lo, hi, lo, hi, True)
+    start, other = overlapping_pairs(lo, hi, lo, hi, _YES)
     out_i = np.empty(16, dtype=np.int64)
     out_j = np.empty(16, dtype=np.int64)
     out_d = np.empty(16)
-    n = 0
+    n = _ZERO
     for i in range(m):
         for e in range(start[i], start[i + 1]):
             j = other[e]
@@ -660,7 +719,7 @@ def projected_crossing_pairs(lo, hi, chain, first, sizes, closed):
     Returns ``(i, j, adjacent)`` in (i, j) order, as the candidate pairs of
     :func:`.projection._crossings` before any determinant.
     """
-    start, other = overlapping_pairs(lo, hi, lo, hi, True)
+    start, other = overlapping_pairs(lo, hi, lo, hi, _YES)
     n = other.size
     out_i = np.empty(n, dtype=np.int64)
     adj = np.zeros(n, dtype=np.bool_)
@@ -728,8 +787,8 @@ def projected_crossings_float(p, q, u, lo, hi, chain, first, sizes, closed, erro
     hit = np.zeros(n, dtype=np.bool_)
     H = np.zeros(n)
     h_doubt = np.zeros(n, dtype=np.bool_)
-    na = 0
-    k = 0
+    na = _ZERO
+    k = _ZERO
     for e in range(adj.size):
         a, b = pi[e], pj[e]
         ra = _sub(_row(q, a), _row(p, a))
