@@ -8,9 +8,10 @@ It prints the CPU and wall seconds per frame (median and mean), the ratio
 old / new, and the projected wall time of a million 1,000-bead frames on 2
 cores and on 64 Dask workers (mean wall per frame x 10^6 / workers, assuming
 perfect scaling: a lower bound).  It also times ``knotsift identify "DT: 4 6
-2"`` as a whole process (median of 7 runs).
+2"`` as a whole process (median of 7 runs, after one warm-up run that also
+writes the bytecode); ``--startup-only`` times only that.
 
-    python bench/bench_throughput.py [--frames 60] [--old DIR]
+    python bench/bench_throughput.py [--frames 60] [--old DIR] [--startup-only]
 """
 
 from __future__ import annotations
@@ -43,6 +44,9 @@ def _startup(old: str | None) -> float:
     env = dict(os.environ)
     if old:
         env["PYTHONPATH"] = old + os.pathsep + env.get("PYTHONPATH", "")
+    env.pop("PYTHONDONTWRITEBYTECODE", None)  # an installed package has its bytecode
+    subprocess.run([sys.executable, "-m", "knotsift", "identify", "DT: 4 6 2"], env=env,
+                   capture_output=True, check=True)
     times = []
     for _ in range(7):
         t = time.perf_counter()
@@ -58,7 +62,15 @@ def main(argv=None) -> int:
     ap.add_argument("--seed", type=int, default=1)
     ap.add_argument("--old", metavar="DIR", help="folder holding an older knotsift package")
     ap.add_argument("--old-seconds", type=float, default=60.0, help="cap per old frame")
+    ap.add_argument("--startup-only", action="store_true",
+                    help="time only the start-up of 'knotsift identify' (new and old in turn)")
     args = ap.parse_args(argv)
+    if args.startup_only:
+        for _ in range(3):
+            print(f"knotsift identify 'DT: 4 6 2' as a process: {_startup(None):.3f} s wall "
+                  "median" + (f" (old {_startup(args.old):.3f} s)" if args.old else ""),
+                  flush=True)
+        return 0
     for n in (200, 1000):
         new = _summary(run_worker(n, args.frames, args.seed, None, None, None)[0])
         line = (f"N={n:>5} new: cpu median {new['cpu_median']:.3f} s, mean "

@@ -41,7 +41,8 @@ def determinant(diagram: Diagram) -> int:
     connected diagram (common practice); a diagram in several pieces, or with
     free loops beside crossings, is split and has determinant 0.  Exact, by
     FLINT's ``fmpz_mat.det`` (multimodular; measured 10 to 100 times faster
-    than :func:`knotsift.invariants.elimination.integer_determinant`).
+    than :func:`knotsift.invariants.elimination.integer_determinant`), or in
+    pure Python for matrices of at most ``small_matrices.SMALL`` rows.
 
     References
     ----------
@@ -61,6 +62,10 @@ def determinant(diagram: Diagram) -> int:
     matrix = forms[0].matrix
     if not matrix:
         return 1
+    from .small_matrices import SMALL, determinant
+
+    if len(matrix) <= SMALL:  # the same integer without loading FLINT
+        return abs(determinant(matrix))
     from flint import fmpz_mat
 
     return abs(int(fmpz_mat([list(row) for row in matrix]).det()))

@@ -13,11 +13,15 @@ __all__ = ["double_cover_homology", "homology_text", "homology_sum", "parse_homo
 
 def _invariant_factors(matrix: Iterable[Iterable[int]]) -> list[int]:
     """Diagonal of the Smith normal form (non-negative, each dividing the next; 0 last)."""
-    from flint import fmpz_mat
+    from .small_matrices import SMALL, smith_diagonal
 
     rows = [list(r) for r in matrix]
     if not rows:
         return []
+    if len(rows) <= SMALL:  # the same diagonal without loading FLINT
+        return smith_diagonal(rows)
+    from flint import fmpz_mat
+
     snf = fmpz_mat(rows).snf()
     return [abs(int(snf[k, k])) for k in range(min(snf.nrows(), snf.ncols()))]
 
@@ -63,7 +67,8 @@ def double_cover_homology(diagram: Diagram) -> tuple[int, ...]:
     A Goeritz matrix presents this group (Goeritz 1933; Gordon and
     Litherland 1978); a diagram in several pieces gives a connected sum of
     the pieces' covers and one S^1 x S^2 per extra piece or free loop.  The
-    Smith normal form is FLINT's ``fmpz_mat.snf``.
+    Smith normal form is FLINT's ``fmpz_mat.snf``, or pure Python for
+    matrices of at most ``small_matrices.SMALL`` rows.
 
     References
     ----------

@@ -35,6 +35,11 @@ from ..errors import InvariantError
 from ..laurent import Laurent
 from .elimination import _permutation_sign
 
+#: Up to this many crossings rho_1's points are evaluated one by one in pure
+#: Python rather than with numpy and FLINT (about as fast here, and their
+#: imports cost more than the whole computation).
+SMALL_RHO = 4
+
 __all__ = [
     "LongKnot",
     "PerturbedAlexander",
@@ -309,9 +314,11 @@ class _Plan:
 
     def evaluate(self, x: int, p: int) -> tuple[int, int] | None:
         """``(det A(x), rho_1(x))`` modulo ``p``, or None where ``A(x)`` is singular."""
-        from flint import nmod_mat
-
         n = self.n
+        if n <= SMALL_RHO:  # the same residues without loading FLINT
+            from .small_matrices import MatrixModP as nmod_mat
+        else:
+            from flint import nmod_mat
         xinv = pow(x, -1, p)
         powers = {0: 1}
         for k in range(1, self.spread + 1):
@@ -618,8 +625,6 @@ def _point_sequence(p: int):
 
 def _certified(lk: LongKnot, plan: _Plan) -> tuple[list[int], list[int]]:
     """Coefficients of ``P = 2 T^(phi + w + 2 n_-) rho_1`` and ``T^(n_-) det A``, proven."""
-    import numpy as np
-
     from .elimination import primes_below_2_31
 
     n = len(lk.crossings)
@@ -636,11 +641,8 @@ def _certified(lk: LongKnot, plan: _Plan) -> tuple[list[int], list[int]]:
     while any(len(v) < npts for v in chosen.values()):
         todo = [p for p in primes if len(chosen[p]) < npts]
         width = npts + 4
-        xs = np.tile(np.arange(start, start + width, dtype=np.int64), len(todo))
-        qs = np.repeat(np.array(todo, dtype=np.int64), width)
-        det, rho, ok = plan.evaluate_batch(xs, qs)
-        for x, q, d, r, good in zip(xs.tolist(), qs.tolist(), det.tolist(), rho.tolist(),
-                                    ok.tolist(), strict=True):
+        need = {q: npts - len(chosen[q]) for q in todo}
+        for x, q, d, r, good in _lanes(plan, need, start, width):
             if good and len(chosen[q]) < npts:
                 scale = pow(x, e, q) if e >= 0 else pow(pow(x, -1, q), -e, q)
                 chosen[q].append((x, d * pow(x, negatives, q) % q, 2 * scale * r % q))
@@ -651,6 +653,33 @@ def _certified(lk: LongKnot, plan: _Plan) -> tuple[list[int], list[int]]:
         p_res.append(_interpolate(xs_list, [v for _, _, v in chosen[p]], p))
         d_res.append(_interpolate(xs_list[:n + 1], [d for _, d, _ in chosen[p]][:n + 1], p))
     return _crt(p_res, primes), _crt(d_res, primes)
+
+
+def _lanes(plan: _Plan, need: dict[int, int], start: int, width: int):
+    """``(x, q, det, rho, ok)`` at the points ``start .. start + width - 1`` modulo each prime.
+
+    One numpy batch, or in pure Python for small diagrams point by point
+    until ``need[q]`` good points are found (the same residues, without
+    loading numpy; the caller takes the first ``need[q]`` good points).
+    """
+    if plan.n <= SMALL_RHO:
+        for q, left in need.items():
+            for x in range(start, start + width):
+                if left <= 0:
+                    break
+                got = plan.evaluate(x, q)
+                if got is not None:
+                    left -= 1
+                    yield x, q, got[0], got[1], True
+        return
+    import numpy as np
+
+    primes = list(need)
+    xs = np.tile(np.arange(start, start + width, dtype=np.int64), len(primes))
+    qs = np.repeat(np.array(primes, dtype=np.int64), width)
+    det, rho, ok = plan.evaluate_batch(xs, qs)
+    yield from zip(xs.tolist(), qs.tolist(), det.tolist(), rho.tolist(), ok.tolist(),
+                   strict=True)
 
 
 _PRIMES_62: list[int] = []

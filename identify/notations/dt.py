@@ -197,8 +197,9 @@ def parse_dt(code: str | Sequence[int]) -> Diagram:
 
     Notes
     -----
-    The shadow is drawn by a planarity test with every crossing a rigid wheel
-    (linear time); the connected-sum check is quadratic in the crossings.
+    The shadow is drawn from the interlacing of the code's loops and checked
+    by counting faces; both steps and the connected-sum check are quadratic
+    in the crossings.
 
     References
     ----------
@@ -228,8 +229,9 @@ def dt_drawings(code: str | Sequence[int]) -> tuple[list[Diagram], list[int]]:
     (list of Diagram, list of int)
         One diagram when the shadow has no such cut (the diagram of
         :func:`parse_dt`); otherwise ``2^k`` diagrams for ``k`` pieces, the
-        first drawn as the planar embedding found, and the crossing counts of
-        the ``k`` pieces.
+        first with the first crossing met in each piece turned as the anchor
+        crossing is (see :func:`knotsift.notations.gauss._interlacement_turns`),
+        and the crossing counts of the ``k`` pieces.
 
     Raises
     ------
@@ -239,7 +241,7 @@ def dt_drawings(code: str | Sequence[int]) -> tuple[list[Diagram], list[int]]:
 
     Examples
     --------
-    >>> drawings, pieces = dt_drawings("4 10 12 2 6 8")  # two trefoils in a row
+    >>> drawings, pieces = dt_drawings("4 6 2 10 12 8")  # two trefoils in a row
     >>> len(drawings), pieces
     (2, [3])
     """
