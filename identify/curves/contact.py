@@ -18,7 +18,7 @@ from __future__ import annotations
 import numpy as np
 
 from ..errors import CurveError
-from .segments import near_pairs, segment_distances
+from .segments import compiled_geometry, near_pairs, numpy_kernel_time, segment_distances
 
 __all__ = ["CONTACT_TOL", "RESOLUTION", "SegmentSet", "segment_set", "closest_contacts",
            "check_no_contact", "contact_resolution"]
@@ -89,6 +89,19 @@ def segment_set(chains: list[tuple[np.ndarray, bool]]) -> SegmentSet:
 def closest_contacts(segs: SegmentSet, tol: float
                      ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
     """Pairs of non-adjacent segments closer than ``tol``: (i, j, distance), closest first."""
+    kernels = compiled_geometry()
+    if kernels is not None:
+        i, j, d = kernels.contact_pairs(
+            segs.p, segs.q, segs.chain, segs.first, np.asarray(segs.sizes, dtype=np.int64),
+            np.asarray(segs.closed, dtype=np.bool_), float(tol))
+        order = np.argsort(d)
+        return i[order], j[order], d[order]
+    with numpy_kernel_time():
+        return _closest_contacts_numpy(segs, tol)
+
+
+def _closest_contacts_numpy(segs: SegmentSet, tol: float
+                            ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
     lo = np.minimum(segs.p, segs.q) - tol / 2
     hi = np.maximum(segs.p, segs.q) + tol / 2
     i, j = near_pairs(lo, hi)

@@ -16,7 +16,8 @@ from dataclasses import dataclass
 import numpy as np
 
 from .contact import segment_set
-from .segments import apex_segment_near, near_pairs, norm, triangle_segment_near
+from .segments import (apex_segment_near, compiled_geometry, near_pairs, norm,
+                       numpy_kernel_time, triangle_segment_near)
 
 __all__ = ["KMT_TOL", "Reduction", "kmt_reduce", "triangles_hit"]
 
@@ -130,6 +131,11 @@ def kmt_reduce(chains: list[tuple[np.ndarray, bool]], tol: float = KMT_TOL,
     triangle (including a neighbouring segment folding into it), the vertex
     is kept.  Deletions are therefore always isotopies.
 
+    With numba available the same passes run compiled
+    (:func:`knotsift.curves.compiled_geometry.kmt_reduce_chains`), keeping
+    exactly the same vertices; see
+    :func:`knotsift.curves.segments.compiled_geometry` for when.
+
     References
     ----------
     K. Koniaris and M. Muthukumar, Phys. Rev. Lett. 66 (1991) and J. Chem.
@@ -137,6 +143,30 @@ def kmt_reduce(chains: list[tuple[np.ndarray, bool]], tol: float = KMT_TOL,
     W. R. Taylor, "A deeply knotted protein structure and how it might fold",
     Nature 406 (2000).
     """
+    kernels = compiled_geometry()
+    if kernels is not None:
+        return _reduce_compiled(kernels, chains, tol, record, max_passes)
+    with numpy_kernel_time():
+        return _reduce_numpy(chains, tol, record, max_passes)
+
+
+def _reduce_compiled(kernels, chains, tol, record, max_passes) -> Reduction:
+    xs = [np.asarray(x, dtype=np.float64).reshape(-1, 3) for x, _ in chains]
+    sizes = np.array([len(x) for x in xs], dtype=np.int64)
+    starts = np.concatenate(([0], np.cumsum(sizes)[:-1])).astype(np.int64)
+    flat = np.concatenate(xs) if xs else np.zeros((0, 3))
+    closed = np.array([bool(c) for _, c in chains], dtype=np.bool_)
+    cur, cnt, passes, tris, ids = kernels.kmt_reduce_chains(
+        np.ascontiguousarray(flat), starts, sizes, closed, float(tol), bool(record),
+        -1 if max_passes is None else int(max_passes))
+    idx = [cur[s:s + k].copy() for s, k in zip(starts.tolist(), cnt.tolist(), strict=True)]
+    out = [(xs[c][idx[c]], bool(closed[c])) for c in range(len(xs))]
+    if not record:
+        tris = ids = None
+    return Reduction(out, idx, int(passes), tris, ids)
+
+
+def _reduce_numpy(chains, tol, record, max_passes) -> Reduction:
     xs = [np.asarray(x, dtype=np.float64) for x, _ in chains]
     closed = [bool(c) for _, c in chains]
     idx = [np.arange(len(x)) for x in xs]

@@ -22,8 +22,8 @@ import numpy as np
 from ..diagram import Diagram
 from ..errors import CurveError
 from .contact import SegmentSet, segment_set
-from .predicates import det3, det3_exact, exact_vector
-from .segments import cross, near_pairs
+from .predicates import ERROR_FACTOR, det3, det3_exact, exact_vector
+from .segments import compiled_geometry, cross, near_pairs, numpy_kernel_time
 
 __all__ = ["PROJECTION_TOL", "MAX_REDRAWS", "Projection", "random_direction", "project",
            "curve_diagram", "crossings_along"]
@@ -86,10 +86,16 @@ def random_direction(rng: np.random.Generator) -> np.ndarray:
 def _frame_for(u: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
     """Unit vectors e1, e2 with (e1, e2, u) right-handed."""
     helper = np.array([1.0, 0.0, 0.0]) if abs(u[0]) < 0.9 else np.array([0.0, 1.0, 0.0])
-    e1 = np.cross(helper, u)
+    e1 = _cross3(helper, u)
     e1 /= np.linalg.norm(e1)
-    e2 = np.cross(u, e1)
+    e2 = _cross3(u, e1)
     return e1, e2
+
+
+def _cross3(a: np.ndarray, b: np.ndarray) -> np.ndarray:
+    """The cross product of two 3-vectors (numpy.cross's formula, without its overhead)."""
+    return np.array([a[1] * b[2] - a[2] * b[1], a[2] * b[0] - a[0] * b[2],
+                     a[0] * b[1] - a[1] * b[0]])
 
 
 def _crossings(segs: SegmentSet, u: np.ndarray, tol: float):
@@ -105,49 +111,33 @@ def _crossings(segs: SegmentSet, u: np.ndarray, tol: float):
     e1, e2 = _frame_for(u)
     P = np.stack((segs.p @ e1, segs.p @ e2), axis=1)
     Q = np.stack((segs.q @ e1, segs.q @ e2), axis=1)
-    m = P.shape[0]
     scale = max(1.0, float(np.abs(segs.p).max(initial=0.0)))
     pad = max(tol, 1e-9) * scale
     lo = np.minimum(P, Q) - pad
     hi = np.maximum(P, Q) + pad
-    if m <= 600:
-        i, j = np.triu_indices(m, 1)
-        ok = np.all((lo[i] <= hi[j]) & (lo[j] <= hi[i]), axis=1)
-        i, j = i[ok], j[ok]
+    kernels = compiled_geometry()
+    if kernels is not None:
+        stage = kernels.projected_crossings_float(
+            segs.p, segs.q, np.ascontiguousarray(u, dtype=np.float64), lo, hi, segs.chain,
+            segs.first, np.asarray(segs.sizes, dtype=np.int64),
+            np.asarray(segs.closed, dtype=np.bool_), ERROR_FACTOR)
     else:
-        i, j = near_pairs(lo, hi)
-    r = segs.q - segs.p
-    uu = np.broadcast_to(u, r.shape)
-    if np.any(np.all(cross(r, uu) == 0.0, axis=1)):
+        with numpy_kernel_time():
+            stage = _float_stage(segs, u, lo, hi)
+    if stage is None or stage[0]:
         return None  # a segment seen end-on
-    adj = segs.adjacent(i, j)
-    if adj.any():
+    _, ai, aj, i, j, o1, o2, o3, o4, sure, hit, H, h_doubt = stage
+    if ai.size:
         # neighbours share a vertex; they overlap in projection only when collinear there
-        ai, aj = i[adj], j[adj]
-        d, bound = det3(r[ai], r[aj], np.broadcast_to(u, (ai.size, 3)))
+        r = segs.q - segs.p
         ue = exact_vector(u)
-        for k in np.flatnonzero(np.abs(d) <= bound):
-            a, b = exact_vector(r[ai[k]]), exact_vector(r[aj[k]])
+        for a_, b_ in zip(ai.tolist(), aj.tolist(), strict=True):
+            a, b = exact_vector(r[a_]), exact_vector(r[b_])
             if det3_exact(a, b, ue) == 0 and _seen_dot(a, b, ue) < 0:
                 return None  # collinear in projection and folding back onto each other
-    i, j = i[~adj], j[~adj]
     if i.size == 0:
         return np.zeros((0, 6))
-    ri, rj = r[i], r[j]
-    ub = np.broadcast_to(u, (i.size, 3))
-    o1, b1 = det3(ri, segs.p[j] - segs.p[i], ub)
-    o2, b2 = det3(ri, segs.q[j] - segs.p[i], ub)
-    o3, b3 = det3(rj, segs.p[i] - segs.p[j], ub)
-    o4, b4 = det3(rj, segs.q[i] - segs.p[j], ub)
-    sure = (np.abs(o1) > b1) & (np.abs(o2) > b2) & (np.abs(o3) > b3) & (np.abs(o4) > b4)
-    hit = sure & (np.sign(o1) != np.sign(o2)) & (np.sign(o3) != np.sign(o4))
-    H = np.zeros(i.size)
-    if hit.any():
-        h, bh = det3(segs.p[i[hit]] - segs.p[j[hit]], ri[hit], rj[hit])
-        H[hit] = h
-        unsure_h = np.flatnonzero(hit)[np.abs(h) <= bh]
-    else:
-        unsure_h = np.zeros(0, dtype=np.int64)
+    unsure_h = np.flatnonzero(h_doubt)
     H_sign = np.sign(H)
     D_sign = np.sign(o2)  # det(ri, rj, u) = o2 - o1, which has o2's sign at a crossing
     # pairs the float filter could not decide: exact arithmetic on the input floats
@@ -171,6 +161,47 @@ def _crossings(segs: SegmentSet, u: np.ndarray, tol: float):
     found = np.stack((i, t, j, s, i_over, sign), axis=1)
     _settle_ties(segs, found, u)
     return found
+
+
+def _float_stage(segs: SegmentSet, u: np.ndarray, lo: np.ndarray, hi: np.ndarray):
+    """The floating-point stage of :func:`_crossings` (numpy; see
+    :func:`knotsift.curves.compiled_geometry.projected_crossings_float`)."""
+    i, j = _overlapping_pairs(lo, hi)
+    r = segs.q - segs.p
+    uu = np.broadcast_to(u, r.shape)
+    if np.any(np.all(cross(r, uu) == 0.0, axis=1)):
+        return (True,) + (None,) * 12  # a segment seen end-on
+    adj = segs.adjacent(i, j)
+    ai, aj = i[adj], j[adj]
+    d, bound = det3(r[ai], r[aj], np.broadcast_to(u, (ai.size, 3)))
+    doubt = np.abs(d) <= bound
+    ai, aj = ai[doubt], aj[doubt]
+    i, j = i[~adj], j[~adj]
+    ri, rj = r[i], r[j]
+    ub = np.broadcast_to(u, (i.size, 3))
+    o1, b1 = det3(ri, segs.p[j] - segs.p[i], ub)
+    o2, b2 = det3(ri, segs.q[j] - segs.p[i], ub)
+    o3, b3 = det3(rj, segs.p[i] - segs.p[j], ub)
+    o4, b4 = det3(rj, segs.q[i] - segs.p[j], ub)
+    sure = (np.abs(o1) > b1) & (np.abs(o2) > b2) & (np.abs(o3) > b3) & (np.abs(o4) > b4)
+    hit = sure & (np.sign(o1) != np.sign(o2)) & (np.sign(o3) != np.sign(o4))
+    H = np.zeros(i.size)
+    h_doubt = np.zeros(i.size, dtype=bool)
+    if hit.any():
+        h, bh = det3(segs.p[i[hit]] - segs.p[j[hit]], ri[hit], rj[hit])
+        H[hit] = h
+        h_doubt[hit] = np.abs(h) <= bh
+    return False, ai, aj, i, j, o1, o2, o3, o4, sure, hit, H, h_doubt
+
+
+def _overlapping_pairs(lo: np.ndarray, hi: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """Pairs ``i < j`` of overlapping boxes in (i, j) order (numpy)."""
+    m = lo.shape[0]
+    if m <= 600:
+        i, j = np.triu_indices(m, 1)
+        ok = np.all((lo[i] <= hi[j]) & (lo[j] <= hi[i]), axis=1)
+        return i[ok], j[ok]
+    return near_pairs(lo, hi)
 
 
 def _exact_pair(segs: SegmentSet, i: int, j: int, u: np.ndarray):

@@ -8,9 +8,16 @@ so callers that keep a vertex "when in doubt" stay correct.
 
 from __future__ import annotations
 
+import os
+import threading
+import time
+from contextlib import contextmanager
+
 import numpy as np
 
 __all__ = [
+    "compiled_geometry",
+    "numpy_kernel_time",
     "near_pairs",
     "segment_distances",
     "point_segment_distances",
@@ -20,6 +27,77 @@ __all__ = [
 
 #: Boxes spanning more grid cells than this are compared with every box directly.
 _MAX_CELLS = 64
+#: ``KNOTSIFT_NO_COMPILED=1`` turns the compiled kernels off (numpy only).
+NO_COMPILED_VARIABLE = "KNOTSIFT_NO_COMPILED"
+#: ``KNOTSIFT_COMPILED=1`` uses them from the first call (benchmarks, long runs).
+COMPILED_VARIABLE = "KNOTSIFT_COMPILED"
+#: CPU seconds of numpy kernel time after which a process starts loading the
+#: compiled kernels by itself: about what loading them costs (import numba and
+#: the cached machine code, about 0.3 + 0.7 s), so a one-frame command never
+#: loads numba at all.
+SWITCH_AFTER_SECONDS = 1.0
+_numpy_seconds = [0.0]
+_state: dict = {"pid": None, "done": False, "module": None, "thread": None}
+
+
+def _flag(name: str) -> bool:
+    return os.environ.get(name, "") not in ("", "0")
+
+
+def _load() -> None:
+    """Import (and, the first time on a machine, compile) the kernels; None on any failure."""
+    try:
+        from . import compiled_geometry as module
+
+        module.warm_up()
+    except Exception:  # numba missing or unable to compile here: the numpy path stays
+        module = None
+    _state["module"] = module
+    _state["done"] = True
+
+
+def compiled_geometry():
+    """The compiled kernels (:mod:`.compiled_geometry`), or None for the numpy path.
+
+    Both paths compute identical results.  None when ``KNOTSIFT_NO_COMPILED=1``
+    is set or numba cannot be used.  Otherwise the kernels are loaded in a
+    background thread once this process has spent
+    :data:`SWITCH_AFTER_SECONDS` in the numpy kernels, and used as soon as
+    they are ready: a one-frame command never pays the second that loading
+    costs, and no item's wall-time budget waits for it (the first compilation
+    on a machine takes about a minute; later processes load the cache).
+    ``KNOTSIFT_COMPILED=1`` loads them at the first call instead and waits.
+    numba is never imported at package import, so paths without 3D curves do
+    not pay for it.
+    """
+    if _flag(NO_COMPILED_VARIABLE):
+        return None
+    if _state["pid"] != os.getpid():  # a new process (or a forked child): start afresh
+        _state.update(pid=os.getpid(), done=False, module=None, thread=None)
+    if _state["done"]:
+        return _state["module"]
+    if _flag(COMPILED_VARIABLE):
+        thread = _state["thread"]
+        if thread is not None:
+            thread.join()
+        else:
+            _load()
+        return _state["module"]
+    if _numpy_seconds[0] >= SWITCH_AFTER_SECONDS and _state["thread"] is None:
+        thread = threading.Thread(target=_load, name="knotsift-compiled-kernels", daemon=True)
+        _state["thread"] = thread
+        thread.start()
+    return None
+
+
+@contextmanager
+def numpy_kernel_time():
+    """Count the CPU time of a numpy kernel towards the switch to the compiled ones."""
+    t0 = time.process_time()
+    try:
+        yield
+    finally:
+        _numpy_seconds[0] += time.process_time() - t0
 
 
 def cross(u: np.ndarray, v: np.ndarray) -> np.ndarray:
@@ -29,9 +107,18 @@ def cross(u: np.ndarray, v: np.ndarray) -> np.ndarray:
     return np.stack((u1 * v2 - u2 * v1, u2 * v0 - u0 * v2, u0 * v1 - u1 * v0), axis=1)
 
 
+def _dot(u: np.ndarray, v: np.ndarray) -> np.ndarray:
+    """Row-wise dot product of (n, 3) arrays, summed left to right.
+
+    Written out rather than ``einsum`` (which pairs the terms its own way), so
+    that the compiled kernels, summing in the same order, agree to the last bit.
+    """
+    return u[:, 0] * v[:, 0] + u[:, 1] * v[:, 1] + u[:, 2] * v[:, 2]
+
+
 def norm(u: np.ndarray) -> np.ndarray:
     """Row-wise Euclidean norm of an (n, 3) array."""
-    return np.sqrt(np.einsum("ij,ij->i", u, u))
+    return np.sqrt(_dot(u, u))
 
 
 def _cells(lo: np.ndarray, hi: np.ndarray, cell: float):
@@ -154,8 +241,8 @@ def near_pairs(lo_a: np.ndarray, hi_a: np.ndarray, lo_b: np.ndarray | None = Non
 def point_segment_distances(x: np.ndarray, p: np.ndarray, q: np.ndarray) -> np.ndarray:
     """Distance from each point ``x[k]`` to the segment ``[p[k], q[k]]``."""
     d = q - p
-    dd = np.einsum("ij,ij->i", d, d)
-    t = np.einsum("ij,ij->i", x - p, d) / np.where(dd > 0, dd, 1.0)
+    dd = _dot(d, d)
+    t = _dot(x - p, d) / np.where(dd > 0, dd, 1.0)
     t = np.clip(t, 0.0, 1.0)
     return norm(x - (p + t[:, None] * d))
 
@@ -175,11 +262,11 @@ def segment_distances(p1: np.ndarray, q1: np.ndarray, p2: np.ndarray, q2: np.nda
     d1 = q1 - p1
     d2 = q2 - p2
     r = p1 - p2
-    a = np.einsum("ij,ij->i", d1, d1)
-    e = np.einsum("ij,ij->i", d2, d2)
-    b = np.einsum("ij,ij->i", d1, d2)
-    c = np.einsum("ij,ij->i", d1, r)
-    f = np.einsum("ij,ij->i", d2, r)
+    a = _dot(d1, d1)
+    e = _dot(d2, d2)
+    b = _dot(d1, d2)
+    c = _dot(d1, r)
+    f = _dot(d2, r)
     den = a * e - b * b
     good = den > 1e-12 * np.maximum(a * e, 1e-300)
     safe = np.where(good, den, 1.0)
@@ -195,10 +282,6 @@ def segment_distances(p1: np.ndarray, q1: np.ndarray, p2: np.ndarray, q2: np.nda
     best = np.minimum(best, point_segment_distances(p2, p1, q1))
     best = np.minimum(best, point_segment_distances(q2, p1, q1))
     return best
-
-
-def _dot(u: np.ndarray, v: np.ndarray) -> np.ndarray:
-    return np.einsum("ij,ij->i", u, v)
 
 
 def triangle_segment_near(a: np.ndarray, b: np.ndarray, c: np.ndarray, p: np.ndarray,
