@@ -2,9 +2,10 @@
 
 Each worker is a child process.  On Linux it is forked from the parent after
 the parent has imported and warmed up the classification path once
-(``preload``), so a worker starts in milliseconds with every module loaded
-(and any compiled kernel already compiled); elsewhere it is started with
-``spawn`` and imports what it needs itself.  Each worker
+(``preload``), so a worker starts in milliseconds with every module loaded;
+elsewhere (or from a parent where forking is unsafe, see
+:func:`start_method`) it is started with ``spawn`` and imports what it needs
+itself.  Each worker
 
 * dies with its parent: on Linux the kernel sends it SIGKILL when the parent
   ends (``PR_SET_PDEATHSIG``), and on every system a watchdog thread ends it
