@@ -15,7 +15,7 @@ from dataclasses import asdict, dataclass
 from ..errors import KnotsiftError
 
 __all__ = ["COLUMNS", "TIMING_COLUMNS", "ClassifyOptions", "classify_item", "classify_chunk",
-           "row_from_result", "error_rows"]
+           "row_from_result", "error_rows", "warm_up"]
 
 #: (name, type, meaning) of every output column, in order; type is int, float or text.
 COLUMNS: tuple[tuple[str, str, str], ...] = (
@@ -337,6 +337,32 @@ def error_rows(item, message: str) -> list[dict]:
         row["status"], row["error"], row["seconds"] = "error", message, 0.0
         rows.append(_finish(row))
     return rows
+
+
+def _warm_up_item(kind: str):
+    """A tiny item of ``kind``: the trefoil as a DT code, or as a ring of 24 beads."""
+    from .sources import Item
+
+    if kind != "frame":
+        return Item("warm-up:0:0", "warm-up", 0, 0, "code", "DT: 4 6 2")
+    import numpy as np
+
+    from ..curves.frame import Chain, Frame
+
+    t = np.linspace(0.0, 2.0 * np.pi, 24, endpoint=False)   # the usual trefoil parametrisation
+    x = np.stack([np.sin(t) + 2 * np.sin(2 * t), np.cos(t) - 2 * np.cos(2 * t),
+                  -np.sin(3 * t)], axis=1)
+    return Item("warm-up:0:0", "warm-up", 0, 0, "frame", Frame("warm-up", 0, [Chain("A", x, True)]))
+
+
+def warm_up(item, options: ClassifyOptions) -> None:
+    """Import and run the classification path once on a tiny item of the kind of ``item``.
+
+    Run by the parent of the worker processes before they are forked, so that
+    each starts with the modules loaded and the first-use work (compiled
+    kernels, caches) done; the result is thrown away.
+    """
+    classify_item(_warm_up_item(getattr(item, "kind", "code")), options)
 
 
 def classify_chunk(items: list, options: ClassifyOptions) -> list[dict]:

@@ -20,7 +20,7 @@ from dataclasses import dataclass, field
 
 from ..errors import KnotsiftError
 from .resume import ResumeError, compare_inputs, pending
-from .rows import ClassifyOptions, classify_chunk, classify_item, error_rows
+from .rows import ClassifyOptions, classify_chunk, classify_item, error_rows, warm_up
 from .sources import iter_items
 
 __all__ = ["classify", "RunReport", "chunked", "default_workers", "classify_one",
@@ -125,7 +125,8 @@ def _run_processes(items, options, write, workers: int, chunk: int):
 
     lim = current()
     run_pool(items, options, classify_one, write, error_rows, workers=workers, chunk=chunk,
-             item_seconds=lim.item_seconds, memory_mb=lim.worker_memory_mb)
+             item_seconds=lim.item_seconds, memory_mb=lim.worker_memory_mb,
+             preload=lambda first: warm_up(first, options))
 
 
 def classify_chunk_limited(items: list, options: ClassifyOptions, limits: dict) -> list[dict]:

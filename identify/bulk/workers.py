@@ -1,6 +1,11 @@
 """Local worker processes with hard per-item limits, poison-item isolation and adaptive tasks.
 
-Each worker is a child process started with the ``spawn`` method.  It
+Each worker is a child process.  On Linux it is forked from the parent after
+the parent has imported and warmed up the classification path once
+(``preload``), so a worker starts in milliseconds with every module loaded;
+elsewhere (or from a parent where forking is unsafe, see
+:func:`start_method`) it is started with ``spawn`` and imports what it needs
+itself.  Each worker
 
 * dies with its parent: on Linux the kernel sends it SIGKILL when the parent
   ends (``PR_SET_PDEATHSIG``), and on every system a watchdog thread ends it
@@ -14,20 +19,27 @@ Each worker is a child process started with the ``spawn`` method.  It
   of the items it finished before.
 
 An item running past ``item_seconds`` (wall clock) has its worker ended.  An
-item whose worker dies or runs over is retried once, alone, in a fresh
-worker; if that fails too, it becomes an error row saying why, and the run
-goes on.  A poison item therefore never blocks a batch.
+item whose worker dies or runs over is retried once, alone, first thing in a
+fresh worker; if that fails too, it becomes an error row saying why, and the
+run goes on.  A poison item therefore never blocks a batch.
 
 Tasks are sized adaptively: the first tasks hold one item each, so every
 worker has work at once, and later tasks grow towards about
-:data:`TARGET_TASK_SECONDS` of work at the measured rate, never beyond the
-``chunk`` given by the user.
+:data:`TARGET_TASK_SECONDS` of work at the rate the workers measure, never
+beyond the ``chunk`` given by the user.  Each worker holds
+:data:`TASKS_AHEAD` tasks: it starts the next one the moment it finishes one,
+while the parent reads the input, writes rows or answers another worker, so
+the parent's own work overlaps the workers' instead of stalling them.  Tasks
+stay short so that the last one, when only one worker is still busy, is short
+too.
 """
 
 from __future__ import annotations
 
+import itertools
 import math
 import os
+import queue
 import signal
 import sys
 import threading
@@ -36,10 +48,18 @@ from collections import deque
 from collections.abc import Callable, Iterator
 from dataclasses import dataclass, field
 
-__all__ = ["run_pool", "task_size", "TARGET_TASK_SECONDS", "set_parent_death_signal"]
+__all__ = ["run_pool", "task_size", "start_method", "TARGET_TASK_SECONDS", "TASKS_AHEAD",
+           "set_parent_death_signal"]
 
 #: Aimed duration of one task once the rate of items is known (seconds).
-TARGET_TASK_SECONDS = 2.0
+TARGET_TASK_SECONDS = 0.5
+#: Tasks held by one worker at a time: the one it runs and the next, already sent.
+TASKS_AHEAD = 2
+#: Longest wait for a worker to take a task sent ahead (seconds).  A worker
+#: thread always takes it at once, unless the worker is stuck in one long call
+#: that holds the interpreter; that worker is then ended and its item retried
+#: alone, so the parent never waits on it for longer.
+SEND_SECONDS = 10
 _PR_SET_PDEATHSIG = 1
 
 
@@ -67,6 +87,22 @@ def _watch_parent(parent: int) -> None:
         time.sleep(0.5)
 
 
+def _limit_send(conn, seconds: float) -> None:
+    """Make a send on ``conn`` (a socket) fail after ``seconds`` instead of blocking."""
+    import socket
+    import struct
+
+    try:
+        sock = socket.socket(fileno=os.dup(conn.fileno()))
+        try:
+            sock.setsockopt(socket.SOL_SOCKET, socket.SO_SNDTIMEO,
+                            struct.pack("ll", int(seconds), 0))
+        finally:
+            sock.close()   # the option stays with the socket, not with this descriptor
+    except (OSError, AttributeError, struct.error):
+        pass
+
+
 def _cap_memory(megabytes: int) -> None:
     try:
         import resource
@@ -92,18 +128,29 @@ def _worker_main(conn, parent: int, limits_env: str, memory_mb: int, work) -> No
 
     if limits_env:
         os.environ[ENV_VAR] = limits_env
-    _cap_memory(memory_mb)
     from ..table import open_table
 
-    open_table.cache_clear()
+    open_table.cache_clear()   # an SQLite connection is not carried across a fork
+    inbox: queue.SimpleQueue = queue.SimpleQueue()
+
+    def receive() -> None:   # always drained, so the parent never blocks sending a task
+        while True:
+            try:
+                message = conn.recv()
+            except (EOFError, OSError):
+                message = None
+            inbox.put(message)
+            if message is None:
+                return
+
+    threading.Thread(target=receive, daemon=True).start()
+    _cap_memory(memory_mb)   # after the threads' stacks are mapped
     while True:
-        try:
-            message = conn.recv()
-        except (EOFError, OSError):
-            return
+        message = inbox.get()
         if message is None:
             return
         task_id, items, options = message
+        began = time.perf_counter()
         for i, item in enumerate(items):
             conn.send(("start", task_id, i))
             try:
@@ -114,7 +161,38 @@ def _worker_main(conn, parent: int, limits_env: str, memory_mb: int, work) -> No
                 conn.send(("memory", task_id, i))
                 continue
             conn.send(("rows", task_id, i, rows))
-        conn.send(("done", task_id))
+        conn.send(("done", task_id, time.perf_counter() - began))
+
+
+def start_method(memory_mb: int | None = None) -> str:
+    """``fork`` where it is safe (workers inherit the warmed-up parent), else ``spawn``.
+
+    Forking needs Linux (it is unsafe on macOS and missing on Windows), a
+    parent with no Python thread but the main one (a lock held by another
+    thread at the fork would stay locked in the child for ever; native
+    threads of numerical libraries, which guard their locks across a fork,
+    are not counted), and a parent whose address space is under half of
+    ``memory_mb``, since a forked worker starts with the parent's and its cap
+    counts it.
+
+    Examples
+    --------
+    >>> start_method() in ("fork", "spawn")
+    True
+    """
+    if not sys.platform.startswith("linux"):
+        return "spawn"
+    try:
+        if threading.active_count() != 1:
+            return "spawn"
+        if memory_mb is not None:
+            with open("/proc/self/statm") as fh:
+                size = int(fh.read().split()[0]) * os.sysconf("SC_PAGE_SIZE")
+            if size > (int(memory_mb) << 20) // 2:
+                return "spawn"
+    except (OSError, ValueError):
+        return "spawn"
+    return "fork"
 
 
 def task_size(rate: float | None, workers: int, chunk: int) -> int:
@@ -131,7 +209,7 @@ def task_size(rate: float | None, workers: int, chunk: int) -> int:
     Examples
     --------
     >>> task_size(None, 2, 200), task_size(10.0, 2, 200), task_size(1000.0, 2, 200)
-    (1, 20, 200)
+    (1, 5, 200)
     """
     if not rate or rate <= 0:
         return 1
@@ -164,14 +242,21 @@ class _Task:
 class _Worker:
     process: object
     conn: object
-    task: _Task | None = None
-    busy_since: float = 0.0
+    tasks: deque = field(default_factory=deque)   # sent, in the order the worker runs them
+    broken: str | None = None   # why it must be ended (a send that timed out)
+
+    @property
+    def task(self) -> _Task | None:
+        """The task the worker is running (or will run next)."""
+        return self.tasks[0] if self.tasks else None
 
 
 def run_pool(items: Iterator, options, work: Callable, write: Callable[[list], None],
              fail_rows: Callable[[object, str], list], workers: int, chunk: int,
              item_seconds: float, memory_mb: int, flush_seconds: float = 2.0,
-             stop: Callable[[], bool] | None = None) -> None:
+             stop: Callable[[], bool] | None = None,
+             preload: Callable[[object], None] | None = None,
+             method: str | None = None) -> None:
     """Classify ``items`` on ``workers`` local processes; write rows as they are ready.
 
     Parameters
@@ -197,6 +282,12 @@ def run_pool(items: Iterator, options, work: Callable, write: Callable[[list], N
         Rows are written at least this often (and whenever ``chunk`` are waiting).
     stop : callable, optional
         Polled between events; when it returns True the pool stops.
+    preload : callable, optional
+        ``preload(first_item)``, run once in this process before the workers
+        are forked, to import and warm up what ``work`` needs (its errors are
+        ignored: the workers then do it themselves).  Not run with ``spawn``.
+    method : str, optional
+        ``fork`` or ``spawn`` (default: :func:`start_method`).
 
     Notes
     -----
@@ -209,7 +300,7 @@ def run_pool(items: Iterator, options, work: Callable, write: Callable[[list], N
     from ..errors import KnotsiftError
     from ..limits import ENV_VAR
 
-    ctx = multiprocessing.get_context("spawn")
+    ctx = None
     limits_env = os.environ.get(ENV_VAR, "")
     parent = os.getpid()
     pool: list[_Worker] = []
@@ -221,15 +312,23 @@ def run_pool(items: Iterator, options, work: Callable, write: Callable[[list], N
     waiting = [0]              # rows in buffer
     last_flush = time.monotonic()
     done_items = 0
-    busy_seconds = 0.0
+    busy_seconds = 0.0         # the workers' own time on finished tasks
     deaths = [0]   # worker deaths with no item started: a broken start, not a poison item
 
     def start_worker() -> _Worker:
         mine, theirs = ctx.Pipe()
+        if method == "fork":   # buffered output must not be written again by the child
+            for stream in (sys.stdout, sys.stderr):
+                try:
+                    stream.flush()
+                except (AttributeError, OSError, ValueError):
+                    pass
         p = ctx.Process(target=_worker_main, args=(theirs, parent, limits_env, memory_mb, work),
                         daemon=True)
         p.start()
         theirs.close()
+        if sys.platform.startswith("linux"):
+            _limit_send(mine, SEND_SECONDS)
         return _Worker(p, mine)
 
     def flush(force: bool = False) -> None:
@@ -249,7 +348,7 @@ def run_pool(items: Iterator, options, work: Callable, write: Callable[[list], N
         waiting[0] += len(rows)
 
     def next_task() -> _Task | None:
-        nonlocal exhausted, next_id
+        nonlocal exhausted
         if retry:
             return retry.popleft()
         if exhausted:
@@ -267,15 +366,28 @@ def run_pool(items: Iterator, options, work: Callable, write: Callable[[list], N
         return _Task(0, block)
 
     def give(w: _Worker) -> None:
+        """Fill the worker up to TASKS_AHEAD tasks (a retried item runs alone)."""
         nonlocal next_id
-        task = next_task()
-        if task is None:
-            return
-        next_id += 1
-        task.id = next_id
-        w.task, w.busy_since = task, time.monotonic()
-        task.current, task.started = None, time.monotonic()
-        w.conn.send((task.id, task.items, options))
+        while len(w.tasks) < TASKS_AHEAD and w.broken is None:
+            if w.tasks and w.tasks[-1].attempt >= 2:
+                return   # a suspect item is retried alone: nothing is sent behind it
+            if retry and retry[0].attempt >= 2 and w.tasks:
+                return   # ... and first thing in a fresh worker
+            task = next_task()
+            if task is None:
+                return
+            next_id += 1
+            task.id = next_id
+            task.current, task.started = None, time.monotonic()
+            w.tasks.append(task)
+            try:
+                w.conn.send((task.id, task.items, options))
+            except (BlockingIOError, TimeoutError):
+                w.broken = (f"the worker did not take its next task for {SEND_SECONDS} s "
+                            "(stuck in one long call) and was ended")
+                return
+            except OSError:   # the worker just ended: its sentinel reports it, its tasks
+                return        # (this one included) are given to another worker then
 
     def end(w: _Worker) -> None:
         try:
@@ -287,11 +399,13 @@ def run_pool(items: Iterator, options, work: Callable, write: Callable[[list], N
 
     def lost(w: _Worker, reason: str) -> None:
         """The worker died or was ended: keep finished items, retry or give up the current."""
-        task = w.task
+        tasks = list(w.tasks)
+        w.tasks.clear()
         end(w)
         pool.remove(w)
-        if task is None:
+        if not tasks:
             return
+        task, queued = tasks[0], tasks[1:]
         kept = [task.rows[i] for i in sorted(task.rows)]
         for rows in kept:
             keep(rows)
@@ -314,9 +428,53 @@ def run_pool(items: Iterator, options, work: Callable, write: Callable[[list], N
         if rest:
             retry.append(_Task(0, rest, attempt=task.attempt if len(rest) == 1 and
                                suspect is None else 1))
+        for t in queued:   # sent but never started: they go to another worker as they were
+            retry.append(_Task(0, t.items, attempt=t.attempt))
         flush()
 
+    def handle(w: _Worker, msg: tuple, now: float) -> bool:
+        """One message of a worker; True when one of its tasks ended (room for the next)."""
+        nonlocal done_items, busy_seconds
+        task = next((t for t in w.tasks if t.id == msg[1]), None)
+        if task is None:
+            return False
+        if msg[0] == "start":
+            task.current, task.started = msg[2], now
+        elif msg[0] == "rows":
+            task.rows[msg[2]] = msg[3]
+            task.current = None
+        elif msg[0] == "memory":
+            item = task.items[msg[2]]
+            task.rows[msg[2]] = fail_rows(
+                item, f"out of memory: the item needs more than the limit "
+                      f"worker_memory_mb = {memory_mb}")
+            task.current = None
+        elif msg[0] == "done":
+            for i in sorted(task.rows):
+                keep(task.rows[i])
+            done_items += len(task.items)
+            busy_seconds += msg[2]
+            w.tasks.remove(task)
+            return True
+        return False
+
+    def replace(w: _Worker, reason: str) -> None:
+        lost(w, reason)
+        pool.append(start_worker())
+        give(pool[-1])
+
     try:
+        first = next(source, None)
+        if first is None:
+            return
+        source = itertools.chain((first,), source)
+        if preload is not None and (method or start_method(memory_mb)) == "fork":
+            try:
+                preload(first)
+            except Exception:  # noqa: BLE001 - only a warm-up: each worker does it again
+                pass
+        method = method or start_method(memory_mb)   # again: the warm-up may start threads
+        ctx = multiprocessing.get_context(method)
         for _ in range(workers):
             pool.append(start_worker())
         for w in pool:
@@ -324,13 +482,13 @@ def run_pool(items: Iterator, options, work: Callable, write: Callable[[list], N
         while True:
             if stop is not None and stop():
                 break
-            active = [w for w in pool if w.task is not None]
+            active = [w for w in pool if w.tasks]
             if not active and exhausted and not retry:
                 break
             if not active:
                 for w in pool:
                     give(w)
-                if not any(w.task for w in pool):
+                if not any(w.tasks for w in pool):
                     if exhausted and not retry:
                         break
                     continue
@@ -345,46 +503,28 @@ def run_pool(items: Iterator, options, work: Callable, write: Callable[[list], N
                 if w not in pool:
                     continue
                 if obj is w.process.sentinel and not w.conn.poll():
-                    lost(w, _death(w))
-                    pool.append(start_worker())
-                    give(pool[-1])
+                    replace(w, _death(w))
                     continue
-                try:
-                    msg = w.conn.recv()
-                except (EOFError, OSError):
-                    lost(w, _death(w))
-                    pool.append(start_worker())
-                    give(pool[-1])
-                    continue
-                task = w.task
-                if task is None or msg[1] != task.id:
-                    continue
-                if msg[0] == "start":
-                    task.current, task.started = msg[2], now
-                elif msg[0] == "rows":
-                    task.rows[msg[2]] = msg[3]
-                    task.current = None
-                elif msg[0] == "memory":
-                    item = task.items[msg[2]]
-                    task.rows[msg[2]] = fail_rows(
-                        item, f"out of memory: the item needs more than the limit "
-                              f"worker_memory_mb = {memory_mb}")
-                    task.current = None
-                elif msg[0] == "done":
-                    for i in sorted(task.rows):
-                        keep(task.rows[i])
-                    done_items += len(task.items)
-                    busy_seconds += now - w.busy_since
-                    w.task = None
-                    give(w)
+                while w in pool and w.conn.poll():   # every message waiting, in order
+                    try:
+                        msg = w.conn.recv()
+                    except (EOFError, OSError):
+                        replace(w, _death(w))
+                        break
+                    if handle(w, msg, now):
+                        give(w)
             for w in list(pool):
                 task = w.task
-                if task is not None and task.current is not None and \
+                if w.broken is not None:
+                    replace(w, w.broken)
+                elif task is not None and task.current is not None and \
                         now - task.started > item_seconds:
-                    lost(w, f"the item ran past the hard limit item_seconds = "
-                            f"{item_seconds:g} s and its worker was ended")
-                    pool.append(start_worker())
-                    give(pool[-1])
+                    replace(w, f"the item ran past the hard limit item_seconds = "
+                               f"{item_seconds:g} s and its worker was ended")
+            if not exhausted or retry:
+                for w in pool:   # a worker left short (a retry ran alone) is filled again
+                    if len(w.tasks) < TASKS_AHEAD:
+                        give(w)
             flush()
         flush(force=True)
     except BaseException:

@@ -49,3 +49,23 @@ def slow(item, options):
 
 def fail_rows(item, reason):
     return _row(item, "error", reason)
+
+
+#: Set by :func:`warm` in the process that runs it (the parent, before forking).
+WARMED = {"pid": None}
+
+
+def warm(first_item):
+    WARMED["pid"] = os.getpid()
+
+
+def reports_warm_up(item, options):
+    """A row saying which process warmed up the worker running it (None: none did)."""
+    return [{"key": item.key, "status": "identified", "error": None,
+             "warmed_by": WARMED["pid"], "worker": os.getpid()}]
+
+
+def echo_size(item, options):
+    """A big row per item at once, whatever the payload's size (a big frame, quickly done)."""
+    return [{"key": item.key, "status": "identified", "error": None,
+             "size": len(item.payload), "padding": "y" * 20_000}]

@@ -13,7 +13,8 @@ import time
 import pytest
 
 from knotsift.bulk.sources import Item
-from knotsift.bulk.workers import run_pool, set_parent_death_signal, task_size
+from knotsift.bulk.workers import (TARGET_TASK_SECONDS, run_pool, set_parent_death_signal,
+                                   start_method, task_size)
 
 from . import poison
 
@@ -67,10 +68,11 @@ def test_run_pool_writes_whole_items_within_chunk():
 
 def test_task_size_starts_at_one_and_grows_to_the_chunk():
     """The first task of each worker holds one item (every worker busy at once); later tasks
-    aim at about two seconds of work and never pass the chunk."""
+    aim at about TARGET_TASK_SECONDS of work and never pass the chunk."""
+    assert TARGET_TASK_SECONDS == 0.5
     assert task_size(None, 2, 200) == 1
     assert task_size(0.5, 2, 200) == 1
-    assert task_size(30.0, 2, 200) == 60
+    assert task_size(30.0, 2, 200) == 15
     assert task_size(1e6, 2, 200) == 200
 
 
@@ -140,3 +142,91 @@ def test_classify_killed_parent_leaves_no_worker(tmp_path, sig):
         assert '"total": 40' in again.stdout
     else:
         assert code == -signal.SIGKILL
+
+
+_WARM_UP = """
+import json, os, sys
+sys.path.insert(0, {root!r})
+from knotsift.bulk.sources import Item
+from knotsift.bulk.workers import run_pool, start_method
+from tests.bulk import poison
+out = {{"method": start_method(4096), "parent": os.getpid()}}
+for method in (None, "spawn"):
+    poison.WARMED["pid"] = None
+    items = [Item(f"w:{{k}}:0", "w", k, 0, "code", "c") for k in range(12)]
+    written = []
+    run_pool(iter(items), None, poison.reports_warm_up, written.append, poison.fail_rows,
+             workers=2, chunk=4, item_seconds=30, memory_mb=4096, preload=poison.warm,
+             method=method)
+    rows = [r for b in written for r in b]
+    out[str(method)] = {{"rows": len(rows), "warmed_by": sorted({{r["warmed_by"] or 0 for r in rows}}),
+                         "workers": sorted({{r["worker"] for r in rows}}),
+                         "parent_warmed": poison.WARMED["pid"]}}
+print(json.dumps(out))
+"""
+
+
+def _script(text: str) -> str:
+    """Run a script in a fresh interpreter (a parent with one thread and a small address
+    space, as ``knotsift classify``); its last line of output."""
+    root = os.path.dirname(os.path.dirname(os.path.dirname(os.path.abspath(__file__))))
+    done = subprocess.run([sys.executable, "-c", text.format(root=root)],
+                          capture_output=True, text=True, timeout=120)
+    assert done.returncode == 0, done.stderr[-2000:]
+    return done.stdout.strip().splitlines()[-1]
+
+
+@pytest.mark.skipif(not sys.platform.startswith("linux"), reason="workers fork on Linux only")
+def test_run_pool_forks_workers_after_the_warm_up():
+    """On Linux, from a one-thread parent, the warm-up runs once, in the parent, and every
+    worker inherits it; with ``spawn`` it is not run and the workers start cold."""
+    import json
+
+    out = json.loads(_script(_WARM_UP))
+    assert out["method"] == "fork"
+    forked, spawned = out["None"], out["spawn"]
+    assert forked["rows"] == 12 and forked["warmed_by"] == [out["parent"]]
+    assert forked["parent_warmed"] == out["parent"]
+    assert out["parent"] not in forked["workers"] and len(forked["workers"]) == 2
+    assert spawned["rows"] == 12 and spawned["warmed_by"] == [0]
+    assert spawned["parent_warmed"] is None
+
+
+def test_start_method_falls_back_to_spawn_for_a_big_or_threaded_parent():
+    """A parent whose address space is over half the workers' cap, or with a second thread,
+    does not fork (a forked worker would start over its cap, or with a lock held for ever)."""
+    import threading
+
+    assert start_method(1) == "spawn"
+    stop = threading.Event()
+    t = threading.Thread(target=stop.wait)
+    t.start()
+    try:
+        assert start_method(1 << 20) == "spawn"
+    finally:
+        stop.set()
+        t.join()
+
+
+_BIG_ITEMS = """
+import sys
+sys.path.insert(0, {root!r})
+from knotsift.bulk.sources import Item
+from knotsift.bulk.workers import run_pool
+from tests.bulk import poison
+items = [Item(f"big:{{k}}:0", "big", k, 0, "code", "x" * 100_000) for k in range(200)]
+written = []
+run_pool(iter(items), None, poison.echo_size, written.append, poison.fail_rows, workers=2,
+         chunk=40, item_seconds=60, memory_mb=4096)
+rows = [r for b in written for r in b]
+assert sorted(r["key"] for r in rows) == sorted(i.key for i in items), len(rows)
+assert {{r["size"] for r in rows}} == {{100_000}}
+print("ok")
+"""
+
+
+def test_run_pool_tasks_sent_ahead_never_block_on_big_items():
+    """Tasks of big items (100 kB each, tasks of megabytes, far above a socket's buffer) are
+    sent ahead to workers that are busy sending big rows back: the run ends, with every item
+    once (without the worker's receiving thread both sides would block on a full buffer)."""
+    assert _script(_BIG_ITEMS) == "ok"
