@@ -362,7 +362,12 @@ def warm_up(item, options: ClassifyOptions) -> None:
     each starts with the modules loaded and the first-use work (compiled
     kernels, caches) done; the result is thrown away.
     """
-    classify_item(_warm_up_item(getattr(item, "kind", "code")), options)
+    kind = getattr(item, "kind", "code")
+    if kind == "frame":   # many frames ahead: compiled 3D kernels now, inherited by the fork
+        from ..curves.segments import preload_compiled
+
+        preload_compiled()
+    classify_item(_warm_up_item(kind), options)
 
 
 def classify_chunk(items: list, options: ClassifyOptions) -> list[dict]:

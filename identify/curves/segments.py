@@ -17,6 +17,7 @@ import numpy as np
 
 __all__ = [
     "compiled_geometry",
+    "preload_compiled",
     "numpy_kernel_time",
     "near_pairs",
     "segment_distances",
@@ -72,8 +73,11 @@ def compiled_geometry():
     """
     if _flag(NO_COMPILED_VARIABLE):
         return None
-    if _state["pid"] != os.getpid():  # a new process (or a forked child): start afresh
-        _state.update(pid=os.getpid(), done=False, module=None, thread=None)
+    if _state["pid"] != os.getpid():  # a new process, or a forked child
+        if _state["done"] and _state["thread"] is None:
+            _state["pid"] = os.getpid()   # loaded by the parent before the fork: keep it
+        else:                             # a load in a thread does not survive a fork
+            _state.update(pid=os.getpid(), done=False, module=None, thread=None)
     if _state["done"]:
         return _state["module"]
     if _flag(COMPILED_VARIABLE):
@@ -88,6 +92,26 @@ def compiled_geometry():
         _state["thread"] = thread
         thread.start()
     return None
+
+
+def preload_compiled() -> bool:
+    """Load the compiled kernels now, in this thread; True when they are in use.
+
+    For a parent about to fork workers that have many frames ahead (``classify``):
+    the children inherit the loaded kernels, so none of them pays the load or
+    runs its first second on numpy.  Does nothing with ``KNOTSIFT_NO_COMPILED=1``;
+    without numba it returns False and the numpy path stays.
+    """
+    if _flag(NO_COMPILED_VARIABLE):
+        return False
+    if _state["pid"] != os.getpid() or not _state["done"]:
+        thread = _state["thread"] if _state["pid"] == os.getpid() else None
+        if thread is not None:
+            thread.join()
+        else:
+            _state.update(pid=os.getpid(), thread=None)
+            _load()
+    return _state["module"] is not None
 
 
 @contextmanager

@@ -8,6 +8,7 @@ Then knot types cannot differ either.
 
 from __future__ import annotations
 
+import os
 import subprocess
 import sys
 
@@ -164,3 +165,34 @@ def test_diagram_input_does_not_import_numba():
     out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
                          check=True).stdout.split()
     assert out[-2:] == ["0", "False"]
+
+
+@pytest.mark.skipif(sys.platform != "linux", reason="fork start (classify's Linux path)")
+def test_forked_child_keeps_kernels_loaded_by_the_parent():
+    """classify's parent loads the kernels before forking; a child uses them at once."""
+    code = (
+        "import os, sys\n"
+        "os.environ.pop('KNOTSIFT_COMPILED', None)\n"
+        "from knotsift.curves import segments\n"
+        "assert segments.compiled_geometry() is None\n"   # below the switch: numpy
+        "assert segments.preload_compiled()\n"
+        "pid = os.fork()\n"
+        "if pid == 0:\n"
+        "    ok = segments.compiled_geometry() is not None and segments._state['thread'] is None\n"
+        "    os._exit(0 if ok else 3)\n"
+        "_, status = os.waitpid(pid, 0)\n"
+        "print(os.waitstatus_to_exitcode(status))\n")
+    env = {k: v for k, v in os.environ.items() if k not in ("KNOTSIFT_COMPILED",
+                                                            "KNOTSIFT_NO_COMPILED")}
+    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
+                         env=env, timeout=900)
+    assert out.returncode == 0, out.stderr[-2000:]
+    assert out.stdout.split()[-1] == "0"
+
+
+def test_preload_respects_the_off_switch(monkeypatch):
+    from knotsift.curves import segments
+
+    monkeypatch.setenv("KNOTSIFT_NO_COMPILED", "1")
+    assert segments.preload_compiled() is False
+    assert segments.compiled_geometry() is None
