@@ -333,6 +333,26 @@ def classify(inputs: Iterable[str | os.PathLike], out: str | os.PathLike, *,
         lock.release()
 
 
+#: Seconds the progress display may spend counting the input before the run;
+#: past that it shows the count and rate without a total (a million frames
+#: would otherwise be read twice).
+COUNT_SECONDS = 2.0
+
+
+def _count_rows(inputs, read, done) -> int | None:
+    """Rows still to do, for the progress total; None when counting takes too long."""
+    import time
+
+    stop = time.monotonic() + COUNT_SECONDS
+    total = 0
+    for it in iter_items(inputs, **read):
+        if it.key not in done:
+            total += it.n_rows
+        if time.monotonic() > stop:
+            return None
+    return total
+
+
 def _run(inputs, read, sink, done, options, workers, dask, chunk, progress) -> RunReport:
     import sys
 
@@ -342,9 +362,7 @@ def _run(inputs, read, sink, done, options, workers, dask, chunk, progress) -> R
     report = RunReport(out=str(sink.where), workers=workers,
                        backend="dask" if dask else ("process" if workers > 1 else "serial"))
     show = sys.stderr.isatty() if progress is None else progress
-    total = None
-    if show:
-        total = sum(it.n_rows for it in iter_items(inputs, **read) if it.key not in done)
+    total = _count_rows(inputs, read, done) if show else None
     bar = Progress(total, label="classify", enabled=show)
     statuses: Counter = Counter()
 

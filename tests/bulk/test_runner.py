@@ -112,6 +112,19 @@ def test_classify_progress_line_on_request(tmp_path, capsys):
     assert "classify 2/2" in err and "/s" in err and "classify 2 done in" in err
 
 
+def test_classify_progress_without_total_when_counting_is_long(tmp_path, capsys, monkeypatch):
+    """A long input is not read twice for the display: past the counting time, no total."""
+    import knotsift.bulk.runner as runner
+
+    monkeypatch.setattr(runner, "COUNT_SECONDS", -1.0)
+    src = tmp_path / "c.txt"
+    src.write_text("4 6 2\n4 6 8 2\n")
+    report = classify([src], tmp_path / "r.csv", workers=1, progress=True)
+    err = capsys.readouterr().err
+    assert report.written == 2
+    assert "classify 2 " in err and "classify 2/2" not in err and "left" not in err
+
+
 def test_classify_streams_one_chunk_at_a_time(tmp_path, monkeypatch):
     """Items are read lazily: when chunk k is classified, only k + 1 chunks have been read,
     however long the input (memory stays flat)."""
