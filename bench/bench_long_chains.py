@@ -60,6 +60,12 @@ def worker(n: int, frames: int, seed: int, seconds_cap: float | None,
     from knotsift.table import open_table
 
     table = open_table()
+    try:  # the compiled 3D kernels, as a long run has them (not in older versions)
+        from knotsift.curves.segments import preload_compiled
+
+        preload_compiled()
+    except ImportError:
+        pass
     if not contact_check:  # phantom polygons: measure the invariant path past near approaches
         import knotsift.curves.pipeline as pipeline
 
@@ -100,10 +106,10 @@ def worker(n: int, frames: int, seed: int, seconds_cap: float | None,
 
 
 def run_worker(n: int, frames: int, seed: int, old: str | None, seconds_cap: float | None,
-               memory_cap: int | None, contact_check: bool = True
-               ) -> tuple[list[dict], float]:
+               memory_cap: int | None, contact_check: bool = True,
+               env_extra: dict | None = None) -> tuple[list[dict], float]:
     """Run one worker process; its rows and its peak memory in GB."""
-    env = dict(os.environ)
+    env = dict(os.environ, **(env_extra or {}))
     if old:
         env["PYTHONPATH"] = old + os.pathsep + env.get("PYTHONPATH", "")
     cmd = [sys.executable, str(Path(__file__).resolve()), "--worker", str(n), str(frames),

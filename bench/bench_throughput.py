@@ -2,8 +2,10 @@
 
 Random equilateral rings of 200 and 1,000 beads (bench/random_polygons.py,
 seeded) go through ``identify_curve`` in worker processes, the current
-knotsift and (with ``--old DIR``, see bench/bench_long_chains.py) an older
-one, alternating by size in one run, since the machine is shared and noisy.
+knotsift (with the compiled 3D kernels loaded before the first frame, as
+``classify`` does, and again with ``KNOTSIFT_NO_COMPILED=1``) and (with
+``--old DIR``, see bench/bench_long_chains.py) an older one, alternating by
+size in one run, since the machine is shared and noisy.
 It prints the CPU and wall seconds per frame (median and mean), the ratio
 old / new, and the projected wall time of a million 1,000-bead frames on 2
 cores and on 64 Dask workers (mean wall per frame x 10^6 / workers, assuming
@@ -73,9 +75,12 @@ def main(argv=None) -> int:
         return 0
     for n in (200, 1000):
         new = _summary(run_worker(n, args.frames, args.seed, None, None, None)[0])
+        plain = _summary(run_worker(n, args.frames, args.seed, None, None, None,
+                                    env_extra={"KNOTSIFT_NO_COMPILED": "1"})[0])
         line = (f"N={n:>5} new: cpu median {new['cpu_median']:.3f} s, mean "
                 f"{new['cpu_mean']:.3f} s; wall median {new['wall_median']:.3f} s, mean "
-                f"{new['wall_mean']:.3f} s")
+                f"{new['wall_mean']:.3f} s | new without numba: cpu median "
+                f"{plain['cpu_median']:.3f} s, mean {plain['cpu_mean']:.3f} s")
         if args.old:
             old = _summary(run_worker(n, args.frames, args.seed, args.old, args.old_seconds,
                                       5_000_000_000)[0])
