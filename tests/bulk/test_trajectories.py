@@ -131,3 +131,28 @@ def test_classify_linked_rings_records_linking_numbers(tmp_path):
     links = {(r["frame"], r["label"]): json.loads(r["linking"]) for r in rows}
     assert abs(links[(0, "A")]["B"]) == 1 and links[(0, "A")]["B"] == links[(0, "B")]["A"]
     assert links[(1, "A")] == {"B": 0}
+
+
+def test_many_chains_without_numba_say_how_to_get_the_compiled_kernels(ring_file, tmp_path,
+                                                                        monkeypatch):
+    import knotsift.bulk.runner as runner
+
+    monkeypatch.delenv("KNOTSIFT_NO_COMPILED", raising=False)
+    monkeypatch.setattr(runner, "SLOW_PATH_NOTE_CHAINS", 1)
+    monkeypatch.setattr(runner, "_compiled_installed", lambda: False)
+    report = classify([ring_file], tmp_path / "a.csv", workers=1, progress=False)
+    assert any('knotsift[fast]' in n for n in report.notes)
+    monkeypatch.setattr(runner, "_compiled_installed", lambda: True)
+    again = classify([ring_file], tmp_path / "b.csv", workers=1, progress=False)
+    assert not any('knotsift[fast]' in n for n in again.notes)
+
+
+def test_compiled_installed_follows_numba_and_the_off_switch(monkeypatch):
+    import importlib.util
+
+    import knotsift.bulk.runner as runner
+
+    monkeypatch.delenv("KNOTSIFT_NO_COMPILED", raising=False)
+    assert runner._compiled_installed() == (importlib.util.find_spec("numba") is not None)
+    monkeypatch.setenv("KNOTSIFT_NO_COMPILED", "1")
+    assert runner._compiled_installed()
