@@ -106,8 +106,18 @@ def chunked(items: Iterable, size: int) -> Iterator[list]:
         yield block
 
 
+#: A serial run whose first chunk holds at least this many 3D frames loads the
+#: compiled kernels before it starts (as the worker pool's parent always does).
+SERIAL_PRELOAD_FRAMES = 20
+
+
 def _run_serial(chunks, options, write):
-    for block in chunks:
+    for i, block in enumerate(chunks):
+        if i == 0 and sum(getattr(it, "kind", "") == "frame" for it in block) \
+                >= SERIAL_PRELOAD_FRAMES:
+            from ..curves.segments import preload_compiled
+
+            preload_compiled()
         write(classify_chunk(block, options))
 
 

@@ -156,3 +156,18 @@ def test_compiled_installed_follows_numba_and_the_off_switch(monkeypatch):
     assert runner._compiled_installed() == (importlib.util.find_spec("numba") is not None)
     monkeypatch.setenv("KNOTSIFT_NO_COMPILED", "1")
     assert runner._compiled_installed()
+
+
+def test_serial_run_of_many_frames_loads_the_compiled_kernels_first(ring_file, tmp_path,
+                                                                     monkeypatch):
+    import knotsift.bulk.runner as runner
+    import knotsift.curves.segments as segments
+
+    calls = []
+    monkeypatch.setattr(segments, "preload_compiled", lambda: calls.append(1) or False)
+    monkeypatch.setattr(runner, "SERIAL_PRELOAD_FRAMES", 10**6)
+    classify([ring_file], tmp_path / "a.csv", workers=1, progress=False)
+    assert calls == []   # a short run does not pay the load
+    monkeypatch.setattr(runner, "SERIAL_PRELOAD_FRAMES", 1)
+    classify([ring_file], tmp_path / "b.csv", workers=1, progress=False)
+    assert calls == [1]
