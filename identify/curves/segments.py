@@ -74,7 +74,7 @@ def compiled_geometry():
     if _flag(NO_COMPILED_VARIABLE):
         return None
     if _state["pid"] != os.getpid():  # a new process, or a forked child
-        if _state["done"] and _state["thread"] is None:
+        if _state.get("done") and _state.get("thread") is None:
             _state["pid"] = os.getpid()   # loaded by the parent before the fork: keep it
         else:                             # a load in a thread does not survive a fork
             _state.update(pid=os.getpid(), done=False, module=None, thread=None)
@@ -104,8 +104,8 @@ def preload_compiled() -> bool:
     """
     if _flag(NO_COMPILED_VARIABLE):
         return False
-    if _state["pid"] != os.getpid() or not _state["done"]:
-        thread = _state["thread"] if _state["pid"] == os.getpid() else None
+    if _state.get("pid") != os.getpid() or not _state.get("done"):
+        thread = _state.get("thread") if _state.get("pid") == os.getpid() else None
         if thread is not None:
             thread.join()
         else:
