@@ -354,12 +354,9 @@ SLOW_PATH_NOTE_CHAINS = 100
 
 
 def _compiled_installed() -> bool:
-    """numba importable, or the compiled kernels deliberately turned off."""
-    import importlib.util
-    import os
+    from ..curves.segments import compiled_installed
 
-    return bool(os.environ.get("KNOTSIFT_NO_COMPILED", "") not in ("", "0")
-                or importlib.util.find_spec("numba") is not None)
+    return compiled_installed()
 
 
 def _count_rows(inputs, read, done) -> int | None:

@@ -18,6 +18,7 @@ import numpy as np
 __all__ = [
     "compiled_geometry",
     "preload_compiled",
+    "compiled_installed",
     "numpy_kernel_time",
     "near_pairs",
     "segment_distances",
@@ -104,14 +105,23 @@ def preload_compiled() -> bool:
     """
     if _flag(NO_COMPILED_VARIABLE):
         return False
-    if _state.get("pid") != os.getpid() or not _state.get("done"):
-        thread = _state.get("thread") if _state.get("pid") == os.getpid() else None
-        if thread is not None:
-            thread.join()
-        else:
-            _state.update(pid=os.getpid(), thread=None)
-            _load()
+    compiled_geometry()   # settles the state of a new or forked process (may start a load)
+    if _state["thread"] is not None:
+        _state["thread"].join()
+    elif not _state["done"]:
+        _load()
     return _state["module"] is not None
+
+
+def compiled_installed() -> bool:
+    """numba importable, or the compiled kernels deliberately turned off.
+
+    False means a long run is on the numpy kernels only for want of numba (a
+    run's summary then names the ``fast`` extra).  Imports nothing.
+    """
+    import importlib.util
+
+    return _flag(NO_COMPILED_VARIABLE) or importlib.util.find_spec("numba") is not None
 
 
 @contextmanager
